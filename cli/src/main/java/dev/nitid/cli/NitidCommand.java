@@ -22,6 +22,7 @@ import picocli.CommandLine.Command;
             "you have validated them for that use."},
         subcommands = {
             CommandLine.HelpCommand.class,
+            InfoCommand.class,
         },
         footerHeading = "%nExit codes:%n",
         footer = {

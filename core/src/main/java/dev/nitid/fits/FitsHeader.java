@@ -18,8 +18,12 @@ import java.util.OptionalDouble;
  * <p>Thread-safe (immutable).
  */
 public final class FitsHeader {
-    /** Text room in a COMMENT/HISTORY card: bytes 9–80 (FITS Standard 4.0 §4.4.2.4). */
-    static final int COMMENTARY_WIDTH = 72;
+    /**
+     * Text per COMMENT/HISTORY card. The standard gives bytes 9–80 (72 characters, FITS Standard 4.0
+     * §4.4.2.4); nom-tam-fits 1.21.2 writes a space in byte 9 and starts the text in byte 10, leaving 71,
+     * and 70 keeps a margin.
+     */
+    static final int COMMENTARY_WIDTH = 70;
 
     private static final FitsHeader EMPTY = new FitsHeader(List.of());
 
@@ -162,7 +166,7 @@ public final class FitsHeader {
     }
 
     /**
-     * Appends HISTORY cards holding {@code text}, split at spaces into pieces of at most 72 characters
+     * Appends HISTORY cards holding {@code text}, split at spaces into pieces of at most 70 characters
      * (a word longer than that is cut).
      *
      * @param text printable ASCII text
