@@ -314,7 +314,8 @@ public final class FitsReader {
                 }
             }
         } catch (EOFException e) {
-            throw scanner.truncated(hdu, done);
+            // Buffered decoding may fail before the last complete row, so the count is not reported.
+            throw scanner.truncated(hdu, -1);
         }
         scanner.advance(done);
         return masked;

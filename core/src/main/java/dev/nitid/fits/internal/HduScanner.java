@@ -124,7 +124,7 @@ public final class HduScanner {
             return null;
         }
         if (index == 0 && !startsWith(block, "SIMPLE  =")) {
-            throw bad(-1, "SIMPLE", "this is not a FITS file: it does not start with the card SIMPLE = T "
+            throw bad(-1, "SIMPLE", "this is not a FITS file, as it does not start with the card SIMPLE = T "
                     + "(check the file name; FITS files start with the text 'SIMPLE')");
         }
         List<byte[]> blocks = new ArrayList<>();
@@ -195,13 +195,14 @@ public final class HduScanner {
      * The error for data that end early.
      *
      * @param hdu     the HDU
-     * @param present data bytes actually present
+     * @param present data bytes actually present, or −1 if unknown
      * @return the exception to throw
      */
     public FitsException truncated(HduInfo hdu, long present) {
         return bad(hdu.index(), null, "the data unit declares " + hdu.dataBytes() + " bytes ("
-                + describeAxes(hdu.axes()) + ", BITPIX " + hdu.bitpix() + ") but only " + Math.max(0, present)
-                + " are present, so the file is truncated (copy it again from its source)");
+                + describeAxes(hdu.axes()) + ", BITPIX " + hdu.bitpix() + ") but "
+                + (present < 0 ? "the file ends before all of them" : "only " + present + " are present")
+                + ", so the file is truncated (copy it again from its source)");
     }
 
     private int readBlock(byte[] block) throws IOException {
