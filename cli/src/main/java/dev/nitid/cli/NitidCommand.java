@@ -24,6 +24,7 @@ import picocli.CommandLine.Command;
             ""},
         subcommands = {
             CommandLine.HelpCommand.class,
+            InfoCommand.class,
             AutoComplete.GenerateCompletion.class,
         },
         footerHeading = "%nExit codes:%n",
