@@ -8,6 +8,8 @@ final class FwhmMeasure {
     private static final double KEYS_A = -0.5;
     /** Fewest interpolated samples across the measuring window. */
     private static final int FINE_TARGET = 600;
+    /** Values below this fraction of the peak are raised to it before taking logarithms. */
+    private static final double LOG_FLOOR = 1e-4;
 
     private FwhmMeasure() {
     }
@@ -31,6 +33,13 @@ final class FwhmMeasure {
             }
             r++;
         }
+        // Interpolate the logarithm: a Gaussian's is a quadratic, which Keys' kernel reproduces exactly, and
+        // a Moffat's is far smoother than the profile itself. The floor keeps dark rings finite.
+        float[] logA = new float[a.length];
+        double floor = LOG_FLOOR * peak;
+        for (int i = 0; i < a.length; i++) {
+            logA[i] = (float) Math.log(Math.max(a[i], floor));
+        }
         int side = 2 * r + 1;
         int u = Math.max(4, Math.min(64, FINE_TARGET / side));
         int nf = side * u;
@@ -40,7 +49,7 @@ final class FwhmMeasure {
             double y = py - r - 0.5 + (j + 0.5) / u;
             for (int i = 0; i < nf; i++) {
                 double x = px - r - 0.5 + (i + 0.5) / u;
-                double v = interpolate(a, w, h, x, y);
+                double v = Math.exp(interpolate(logA, w, h, x, y));
                 f[j * nf + i] = v;
                 max = Math.max(max, v);
             }

@@ -11,8 +11,9 @@ import java.util.OptionalDouble;
  *
  * <h2>How each figure is measured</h2>
  * <ul>
- * <li><b>FWHM</b>: the image is interpolated by Keys' cubic convolution (Keys 1981, IEEE Trans. ASSP 29,
- *   1153; a = −½) on a grid {@code u} times finer around the peak; the region at or above half the
+ * <li><b>FWHM</b>: the logarithm of the image (floored at 10⁻⁴ of the peak) is interpolated by Keys'
+ *   cubic convolution (Keys 1981, IEEE Trans. ASSP 29, 1153; a = −½, which reproduces quadratics, hence a
+ *   sampled Gaussian exactly) on a grid {@code u} times finer around the peak; the region at or above half the
  *   interpolated maximum is treated as an ellipse: for a uniform ellipse of semi-axes a, b the second
  *   moments along its axes are a²/4 and b²/4, so FWHM<sub>major</sub> = 4√λ₁ and FWHM<sub>minor</sub> =
  *   4√λ₂ from the eigenvalues of the region's second-moment matrix, and the angle is that of the first
