@@ -48,14 +48,14 @@ public final class FieldGenerator {
 
         Image psfCentre = psf.centre();
         Image extended = Image.create(w, h);
-        Image noiseless = Image.create(w, h);
-        float[] nl = noiseless.plane(0);
+        Image extendedLight = Image.create(w, h);
         if (!settings.extended().isEmpty()) {
             Image canvas = extendedCanvas(settings, extRnd);
             crop(canvas, pad(settings), extended);
-            Image blurred = blur(canvas, psfCentre);
-            crop(blurred, pad(settings), noiseless);
+            crop(blur(canvas, psfCentre), pad(settings), extendedLight);
         }
+        Image noiseless = extendedLight.copy();
+        float[] nl = noiseless.plane(0);
 
         Image truth = extended.copy();
 
@@ -104,7 +104,7 @@ public final class FieldGenerator {
             catalogue.add(new TruthStar(st[0], st[1], st[2], peaks[s], sat));
         }
         Image observed = addNoise(noiseless, det, noiseRnd);
-        return new SyntheticField(observed, truth, extended, noiseless, psfCentre, catalogue, settings);
+        return new SyntheticField(observed, truth, extended, extendedLight, noiseless, psfCentre, catalogue, settings);
     }
 
     /** Pads by half a PSF so that the blurred field sees light from just outside it. */

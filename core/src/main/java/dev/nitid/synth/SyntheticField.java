@@ -11,12 +11,14 @@ import java.util.List;
  * @param truth         the unblurred scene without sky or noise: each star's flux in the pixel holding its
  *                      centre, plus the extended structure
  * @param extendedTruth the extended structure alone, unblurred (what restorers should recover between stars)
+ * @param extendedLight the extended structure blurred by the PSF, noise-free, without sky
  * @param noiseless     the expected value of {@code observed} before noise and clipping: sky + PSF ⊛ truth
  * @param psf           the unit-sum PSF at the field centre (the "true PSF" to give a restorer)
  * @param catalogue     the stars, in the order they were drawn
  * @param settings      the settings that made the field
  */
-public record SyntheticField(Image observed, Image truth, Image extendedTruth, Image noiseless, Image psf,
+public record SyntheticField(Image observed, Image truth, Image extendedTruth, Image extendedLight,
+                             Image noiseless, Image psf,
                              List<TruthStar> catalogue, FieldSettings settings) {
 
     /** Copies the catalogue into an unmodifiable list. */
