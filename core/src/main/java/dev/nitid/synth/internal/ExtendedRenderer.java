@@ -3,13 +3,16 @@ package dev.nitid.synth.internal;
 import java.util.SplittableRandom;
 
 /**
- * Draws the unblurred extended structure of a synthetic field — a smooth nebula of broad Gaussian clouds,
+ * Draws the unblurred extended structure of a synthetic field — a smooth nebula of Gaussian clouds clustered
+ * around one centre,
  * fine filaments along smooth random curves, and elliptical exponential discs for galaxies — onto a
  * canvas that may be larger than the field (the field's pixel (0, 0) is canvas pixel (pad, pad)).
  */
 public final class ExtendedRenderer {
     /** Number of broad clouds summed into the nebula. */
     static final int CLOUDS = 6;
+    /** Spread of the cloud centres around the nebula's centre, in units of the field's smaller side. */
+    static final double CLUSTER_SPREAD = 0.12;
     /** Sampling step along a filament in pixels: fine enough that the splats merge into a smooth line. */
     static final double FILAMENT_STEP = 0.25;
 
@@ -35,10 +38,14 @@ public final class ExtendedRenderer {
         double[] inv2s2 = new double[CLOUDS];
         double[] amp = new double[CLOUDS];
         double side = Math.min(fw, fh);
+        // The clouds cluster around one centre in the middle half of the field, so that the nebula covers
+        // part of the field and leaves dark sky elsewhere, as a real nebula in a wider field does.
+        double nx = pad + fw * rnd.nextDouble(0.25, 0.75);
+        double ny = pad + fh * rnd.nextDouble(0.25, 0.75);
         for (int k = 0; k < CLOUDS; k++) {
-            cx[k] = pad + rnd.nextDouble(0, fw);
-            cy[k] = pad + rnd.nextDouble(0, fh);
-            double s = side * rnd.nextDouble(0.08, 0.25);
+            cx[k] = nx + CLUSTER_SPREAD * side * rnd.nextGaussian();
+            cy[k] = ny + CLUSTER_SPREAD * side * rnd.nextGaussian();
+            double s = side * rnd.nextDouble(0.04, 0.12);
             inv2s2[k] = 1 / (2 * s * s);
             amp[k] = rnd.nextDouble(0.3, 1.0);
         }
