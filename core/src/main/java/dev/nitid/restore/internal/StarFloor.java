@@ -1,0 +1,176 @@
+package dev.nitid.restore.internal;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+
+/**
+ * Builds the sky floor around bright stars used by {@link dev.nitid.restore.StarGuard#SKY_FLOOR}: a sparse
+ * list of grid pixels and the lowest value the estimate may take there.
+ */
+public final class StarFloor {
+    /** Inner gap between the protected disc and the annulus where the local sky is measured, px (our choice). */
+    public static final int SKY_GAP = 2;
+    /** Width of that annulus, px (our choice: enough pixels for a median even for small discs). */
+    public static final int SKY_WIDTH = 5;
+    /** Smallest protected radius, px (our choice: covers the first dark ring of a well-sampled PSF). */
+    public static final double MIN_RADIUS = 3.0;
+    /** The PSF radius is measured where the PSF falls to this fraction of its peak (our choice). */
+    public static final double PSF_EDGE_FRACTION = 1e-3;
+
+    /**
+     * The floor: grid indices and values.
+     *
+     * @param indices grid pixel indices
+     * @param values  floor at each
+     * @param stars   number of protected stars
+     * @param radius  protected radius, px
+     */
+    public record Floor(int[] indices, float[] values, int stars, double radius) {
+    }
+
+    private StarFloor() {
+    }
+
+    /**
+     * Radius of the PSF: the largest distance from its centre pixel of a pixel at or above
+     * {@link #PSF_EDGE_FRACTION} of the peak.
+     *
+     * @param psf    PSF pixels (input, not modified)
+     * @param pw     PSF width
+     * @param ph     PSF height
+     * @return the radius in pixels
+     */
+    public static double psfRadius(float[] psf, int pw, int ph) {
+        float peak = 0;
+        for (float v : psf) {
+            peak = Math.max(peak, v);
+        }
+        double r = 0;
+        int cx = pw / 2;
+        int cy = ph / 2;
+        for (int j = 0; j < ph; j++) {
+            for (int i = 0; i < pw; i++) {
+                if (psf[j * pw + i] >= PSF_EDGE_FRACTION * peak) {
+                    r = Math.max(r, Math.hypot(i - cx, j - cy));
+                }
+            }
+        }
+        return r;
+    }
+
+    /**
+     * Finds bright stars and builds their floor.
+     *
+     * @param d           frame data (input, not modified); NaN/±∞ ignored
+     * @param valid       per-pixel validity or null (input, not modified)
+     * @param width       frame columns
+     * @param height      frame rows
+     * @param sky         global sky level (for detection)
+     * @param sigma       sky noise σ
+     * @param detectSigma detection threshold in σ above the sky
+     * @param radius      protected radius, px
+     * @param marginSigma how far below the local sky the floor sits, in σ
+     * @param gridWidth   width of the restoration grid
+     * @param padX        frame offset inside the grid, x
+     * @param padY        frame offset inside the grid, y
+     * @return the floor (empty if no star qualifies)
+     */
+    public static Floor build(float[] d, boolean[] valid, int width, int height, double sky, double sigma,
+                              double detectSigma, double radius, double marginSigma, int gridWidth, int padX,
+                              int padY) {
+        double thr = sky + detectSigma * sigma;
+        List<int[]> stars = new ArrayList<>();
+        for (int y = 0; y < height; y++) {
+            for (int x = 0; x < width; x++) {
+                int i = y * width + x;
+                float v = d[i];
+                if (!ok(d, valid, i) || v <= thr) {
+                    continue;
+                }
+                boolean max = true;
+                for (int dy = -1; dy <= 1 && max; dy++) {
+                    for (int dx = -1; dx <= 1; dx++) {
+                        int xx = x + dx;
+                        int yy = y + dy;
+                        if ((dx != 0 || dy != 0) && xx >= 0 && yy >= 0 && xx < width && yy < height) {
+                            int j = yy * width + xx;
+                            // ties go to the first pixel in raster order
+                            if (ok(d, valid, j) && (d[j] > v || (d[j] == v && j < i))) {
+                                max = false;
+                                break;
+                            }
+                        }
+                    }
+                }
+                if (max) {
+                    stars.add(new int[] {x, y});
+                }
+            }
+        }
+        if (stars.isEmpty()) {
+            return new Floor(new int[0], new float[0], 0, radius);
+        }
+        int ri = (int) Math.ceil(radius);
+        int ro = ri + SKY_GAP + SKY_WIDTH;
+        double r2 = radius * radius;
+        // floor per frame pixel (min over overlapping stars); +∞ where unprotected
+        float[] f = new float[width * height];
+        Arrays.fill(f, Float.POSITIVE_INFINITY);
+        float[] ann = new float[(2 * ro + 1) * (2 * ro + 1)];
+        for (int[] s : stars) {
+            int n = 0;
+            for (int dy = -ro; dy <= ro; dy++) {
+                for (int dx = -ro; dx <= ro; dx++) {
+                    double rr = Math.hypot(dx, dy);
+                    int xx = s[0] + dx;
+                    int yy = s[1] + dy;
+                    if (rr >= ri + SKY_GAP && rr <= ro && xx >= 0 && yy >= 0 && xx < width && yy < height
+                            && ok(d, valid, yy * width + xx)) {
+                        ann[n++] = d[yy * width + xx];
+                    }
+                }
+            }
+            if (n < 8) {
+                continue; // too close to the edge or to masked data to measure a local sky
+            }
+            Arrays.sort(ann, 0, n);
+            double local = (n & 1) == 1 ? ann[n / 2] : 0.5 * (ann[n / 2 - 1] + ann[n / 2]);
+            float fv = (float) (local - marginSigma * sigma);
+            for (int dy = -ri; dy <= ri; dy++) {
+                for (int dx = -ri; dx <= ri; dx++) {
+                    int xx = s[0] + dx;
+                    int yy = s[1] + dy;
+                    if (dx * dx + dy * dy <= r2 && xx >= 0 && yy >= 0 && xx < width && yy < height) {
+                        int i = yy * width + xx;
+                        f[i] = Math.min(f[i], fv);
+                    }
+                }
+            }
+        }
+        int count = 0;
+        for (float v : f) {
+            if (v != Float.POSITIVE_INFINITY) {
+                count++;
+            }
+        }
+        int[] idx = new int[count];
+        float[] val = new float[count];
+        int k = 0;
+        for (int y = 0; y < height; y++) {
+            for (int x = 0; x < width; x++) {
+                float v = f[y * width + x];
+                if (v != Float.POSITIVE_INFINITY) {
+                    idx[k] = (y + padY) * gridWidth + x + padX;
+                    val[k] = v;
+                    k++;
+                }
+            }
+        }
+        return new Floor(idx, val, stars.size(), radius);
+    }
+
+    private static boolean ok(float[] d, boolean[] valid, int i) {
+        return Float.isFinite(d[i]) && (valid == null || valid[i]);
+    }
+}
