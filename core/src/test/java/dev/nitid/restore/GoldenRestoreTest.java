@@ -34,7 +34,7 @@ class GoldenRestoreTest {
         Image out = Image.create(64, 64);
         RlPlan.Outcome oc = plan.run(INPUT.plane(0), null, null, null, out.plane(0),
                 new RlPlan.Params(Method.RICHARDSON_LUCY, 0, 1, 0, 1, 1),
-                new RlPlan.Conventions(0.5, 0.5, 1e-12, false), Stopping.fixed(10), 0, ProgressListener.NONE,
+                new RlPlan.Conventions(0.5, 0.5, 1e-12, false, null), Stopping.fixed(10), 0, ProgressListener.NONE,
                 () -> false);
         assertEquals(10, oc.iterations());
         ArrayAssert.assertClose(Fixtures.goldenDoubles("rl_skimage_10"), out.plane(0), 64, RTOL, ATOL);

@@ -45,11 +45,13 @@ public final class RlPlan {
      * @param guard      ε added to the denominator {@code K o + c}, ≥ 0
      * @param normalise  divide by {@code s = Kᵀ w} (the general, boundary-correct form); false reproduces the
      *                   plain form {@code o ← o · Kᵀ[...]}
+     * @param startImage a start estimate on the grid, or null (input, not modified); overrides startValue
      */
-    public record Conventions(double startValue, double startFloor, double guard, boolean normalise) {
+    public record Conventions(double startValue, double startFloor, double guard, boolean normalise,
+                              float[] startImage) {
         /** @return our defaults: flat start at the data mean, no guard beyond the noise offset, normalised */
         public static Conventions standard(double startFloor) {
-            return new Conventions(Double.NaN, startFloor, 0, true);
+            return new Conventions(Double.NaN, startFloor, 0, true, null);
         }
     }
 
@@ -226,9 +228,13 @@ public final class RlPlan {
             }
             start = Math.max(cnt > 0 ? sum / cnt : 0, conv0.startFloor());
         }
-        Arrays.fill(o, (float) start);
+        if (conv0.startImage() != null) {
+            System.arraycopy(conv0.startImage(), 0, o, 0, n);
+        } else {
+            Arrays.fill(o, (float) start);
+        }
         if (xPrev != null) {
-            Arrays.fill(xPrev, (float) start);
+            System.arraycopy(o, 0, xPrev, 0, n);
             Arrays.fill(gBuf, 0f);
         }
 
