@@ -60,21 +60,20 @@ final class PlanningRestorer implements Restorer {
                 }
                 StarProtection prot = settings.protection();
                 StarFloor.Floor floor = null;
-                if (prot.guard() == StarGuard.SKY_FLOOR) {
+                if (prot.guard() != StarGuard.NONE) {
                     Image kp = k != null ? k : normalised(psf, 0);
                     double radius = Math.max(StarFloor.MIN_RADIUS,
                             prot.radiusFactor() * StarFloor.psfRadius(kp.plane(0), kp.width(), kp.height()));
                     int padX = (plan.gridWidth() - w) / 2;
                     int padY = (plan.gridHeight() - h) / 2;
                     floor = StarFloor.build(d, valid, w, h, sky, sigma, prot.detectSigma(), radius,
-                            prot.marginSigma(), plan.gridWidth(), padX, padY);
+                            prot.marginSigma(), plan.gridWidth(), padX, padY, prot.guard() == StarGuard.RING_FLOOR);
                 }
                 double tiny = sigma > 0 ? 1e-3 * sigma : 1e-6;
                 RlPlan.Params params = new RlPlan.Params(m, noise.offset(), noise.gain(), settings.tvWeight(),
                         tiny, settings.dampingSigma());
                 long setup = System.nanoTime() - t0;
-                RlPlan.Outcome oc = plan.run(d, valid, floor == null ? null : floor.indices(),
-                        floor == null ? null : floor.values(), out.plane(p), params,
+                RlPlan.Outcome oc = plan.run(d, valid, floor, out.plane(p), params,
                         RlPlan.Conventions.standard(tiny), settings.stopping(), p, listener, cancelled);
                 reports.add(new PlaneReport(oc.iterations(), oc.reason(), oc.history(), noise, masked,
                         floor == null ? 0 : floor.stars(), setup, oc.nanos()));

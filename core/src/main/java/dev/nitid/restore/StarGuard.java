@@ -11,5 +11,13 @@ public enum StarGuard {
      * {@code local sky − margin·σ} after every iteration. The star's core still sharpens (it is far above
      * the floor); only the undershoot that makes a dark ring is cut off. Our own method.
      */
-    SKY_FLOOR
+    SKY_FLOOR,
+    /**
+     * Ring floor: the same stars, local sky and margin as {@link #SKY_FLOOR}, but the constraint is on the
+     * mean of each 1-px annulus around the star rather than on each pixel: after every iteration an
+     * annulus whose mean lies below {@code local sky − margin·σ} is lifted by the difference. A star plus sky
+     * is never darker than the sky on average at any radius, so this removes the systematic dark ring while
+     * leaving the pixel noise untouched (no positive bias from clipping noise). Our own method.
+     */
+    RING_FLOOR
 }

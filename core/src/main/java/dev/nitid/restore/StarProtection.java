@@ -13,7 +13,7 @@ public record StarProtection(StarGuard guard, double detectSigma, double radiusF
     /** Validates the settings. */
     public StarProtection {
         if (guard == null) {
-            throw new IllegalArgumentException("star guard is null: choose NONE or SKY_FLOOR");
+            throw new IllegalArgumentException("star guard is null: choose NONE, SKY_FLOOR or RING_FLOOR");
         }
         if (!(detectSigma > 0) || Double.isInfinite(detectSigma)) {
             throw new IllegalArgumentException("detectSigma is " + detectSigma + ": use a finite value > 0");
@@ -34,6 +34,16 @@ public record StarProtection(StarGuard guard, double detectSigma, double radiusF
     /** @return the sky floor with the default parameters (tuned on synthetic fields, see notes/restore.md) */
     public static StarProtection skyFloor() {
         return new StarProtection(StarGuard.SKY_FLOOR, 30, 1.5, 0.5);
+    }
+
+    /** @return the ring floor with the default parameters (tuned on synthetic fields, see notes/restore.md) */
+    public static StarProtection ringFloor() {
+        return new StarProtection(StarGuard.RING_FLOOR, 30, 1.5, 0.5);
+    }
+
+    /** @return these settings with another guard */
+    public StarProtection withGuard(StarGuard g) {
+        return new StarProtection(g, detectSigma, radiusFactor, marginSigma);
     }
 
     /** @return these settings with another margin */

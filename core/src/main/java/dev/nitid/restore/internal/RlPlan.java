@@ -148,8 +148,7 @@ public final class RlPlan {
      *
      * @param observed  frame data, width × height (input, not modified); NaN/±∞ masked
      * @param valid     per-pixel weight of the frame, or null when every finite pixel counts (input, not modified)
-     * @param floorIdx  grid indices of the star floor, or null (input, not modified)
-     * @param floorVal  floor values at those indices (input, not modified)
+     * @param floor     the star floor, or null (input, not modified)
      * @param out       restored frame, width × height (output, modified)
      * @param p         method parameters
      * @param conv0     iteration conventions
@@ -159,7 +158,7 @@ public final class RlPlan {
      * @param cancelled cancellation poll
      * @return the outcome
      */
-    public Outcome run(float[] observed, boolean[] valid, int[] floorIdx, float[] floorVal, float[] out,
+    public Outcome run(float[] observed, boolean[] valid, StarFloor.Floor floor, float[] out,
                        Params p, Conventions conv0, Stopping stop, int plane, ProgressListener listener,
                        BooleanSupplier cancelled) {
         final int n = gw * gh;
@@ -323,13 +322,8 @@ public final class RlPlan {
                 }
                 change = tot > 0 ? diff / tot : 0;
             }
-            if (floorIdx != null) {
-                for (int j = 0; j < floorIdx.length; j++) {
-                    int i = floorIdx[j];
-                    if (o[i] < floorVal[j]) {
-                        o[i] = floorVal[j];
-                    }
-                }
+            if (floor != null) {
+                floor.apply(o);
             }
             k++;
             IterationRecord rec = new IterationRecord(plane, k, logL, chi2, change, System.nanoTime() - t0);

@@ -19,14 +19,38 @@ public final class StarFloor {
     public static final double PSF_EDGE_FRACTION = 1e-3;
 
     /**
-     * The floor: grid indices and values.
+     * The floor: groups of grid pixels whose mean must not fall below the group's floor. A group of one
+     * pixel is a per-pixel clamp; a group of one annulus keeps the star's azimuthal profile above the sky
+     * while leaving the noise texture alone.
      *
-     * @param indices grid pixel indices
-     * @param values  floor at each
-     * @param stars   number of protected stars
-     * @param radius  protected radius, px
+     * @param indices    grid pixel indices, group after group
+     * @param groupStart where each group starts in {@code indices}; one extra entry at the end
+     * @param groupFloor the floor of each group
+     * @param stars      number of protected stars
+     * @param radius     protected radius, px
      */
-    public record Floor(int[] indices, float[] values, int stars, double radius) {
+    public record Floor(int[] indices, int[] groupStart, float[] groupFloor, int stars, double radius) {
+        /**
+         * Lifts every group whose mean is below its floor by the missing amount (a single pixel is clamped).
+         *
+         * @param o the estimate on the grid (input and output, modified)
+         */
+        public void apply(float[] o) {
+            for (int g = 0; g < groupFloor.length; g++) {
+                int a = groupStart[g];
+                int b = groupStart[g + 1];
+                double sum = 0;
+                for (int j = a; j < b; j++) {
+                    sum += o[indices[j]];
+                }
+                float lift = (float) (groupFloor[g] - sum / (b - a));
+                if (lift > 0) {
+                    for (int j = a; j < b; j++) {
+                        o[indices[j]] += lift;
+                    }
+                }
+            }
+        }
     }
 
     private StarFloor() {
@@ -74,11 +98,12 @@ public final class StarFloor {
      * @param gridWidth   width of the restoration grid
      * @param padX        frame offset inside the grid, x
      * @param padY        frame offset inside the grid, y
+     * @param rings       true: one group per 1-px annulus around each star; false: one group per pixel
      * @return the floor (empty if no star qualifies)
      */
     public static Floor build(float[] d, boolean[] valid, int width, int height, double sky, double sigma,
                               double detectSigma, double radius, double marginSigma, int gridWidth, int padX,
-                              int padY) {
+                              int padY, boolean rings) {
         double thr = sky + detectSigma * sigma;
         List<int[]> stars = new ArrayList<>();
         for (int y = 0; y < height; y++) {
@@ -109,7 +134,7 @@ public final class StarFloor {
             }
         }
         if (stars.isEmpty()) {
-            return new Floor(new int[0], new float[0], 0, radius);
+            return new Floor(new int[0], new int[] {0}, new float[0], 0, radius);
         }
         int ri = (int) Math.ceil(radius);
         int ro = ri + SKY_GAP + SKY_WIDTH;
@@ -118,6 +143,9 @@ public final class StarFloor {
         float[] f = new float[width * height];
         Arrays.fill(f, Float.POSITIVE_INFINITY);
         float[] ann = new float[(2 * ro + 1) * (2 * ro + 1)];
+        List<Integer> ringIdx = new ArrayList<>();
+        List<Integer> ringStart = new ArrayList<>();
+        List<Float> ringFloor = new ArrayList<>();
         for (int[] s : stars) {
             int n = 0;
             for (int dy = -ro; dy <= ro; dy++) {
@@ -137,6 +165,27 @@ public final class StarFloor {
             Arrays.sort(ann, 0, n);
             double local = (n & 1) == 1 ? ann[n / 2] : 0.5 * (ann[n / 2 - 1] + ann[n / 2]);
             float fv = (float) (local - marginSigma * sigma);
+            if (rings) {
+                // annulus b holds the pixels with round(r) = b, for b = 1..ri (the centre pixel is the star)
+                for (int b = 1; b <= ri; b++) {
+                    int before = ringIdx.size();
+                    for (int dy = -b - 1; dy <= b + 1; dy++) {
+                        for (int dx = -b - 1; dx <= b + 1; dx++) {
+                            int xx = s[0] + dx;
+                            int yy = s[1] + dy;
+                            if ((int) Math.round(Math.hypot(dx, dy)) == b && xx >= 0 && yy >= 0 && xx < width
+                                    && yy < height) {
+                                ringIdx.add((yy + padY) * gridWidth + xx + padX);
+                            }
+                        }
+                    }
+                    if (ringIdx.size() > before) {
+                        ringStart.add(before);
+                        ringFloor.add(fv);
+                    }
+                }
+                continue;
+            }
             for (int dy = -ri; dy <= ri; dy++) {
                 for (int dx = -ri; dx <= ri; dx++) {
                     int xx = s[0] + dx;
@@ -147,6 +196,17 @@ public final class StarFloor {
                     }
                 }
             }
+        }
+        if (rings) {
+            int[] idx = ringIdx.stream().mapToInt(Integer::intValue).toArray();
+            int[] start = new int[ringStart.size() + 1];
+            float[] fl = new float[ringFloor.size()];
+            for (int g = 0; g < fl.length; g++) {
+                start[g] = ringStart.get(g);
+                fl[g] = ringFloor.get(g);
+            }
+            start[fl.length] = idx.length;
+            return new Floor(idx, start, fl, stars.size(), radius);
         }
         int count = 0;
         for (float v : f) {
@@ -167,7 +227,11 @@ public final class StarFloor {
                 }
             }
         }
-        return new Floor(idx, val, stars.size(), radius);
+        int[] start = new int[count + 1];
+        for (int g = 0; g <= count; g++) {
+            start[g] = g;
+        }
+        return new Floor(idx, start, val, stars.size(), radius);
     }
 
     private static boolean ok(float[] d, boolean[] valid, int i) {
