@@ -73,7 +73,7 @@ final class PlanningRestorer implements Restorer {
                 RlPlan.Params params = new RlPlan.Params(m, noise.offset(), noise.gain(), settings.tvWeight(),
                         tiny, settings.dampingSigma());
                 long setup = System.nanoTime() - t0;
-                RlPlan.Outcome oc = plan.run(d, valid, floor, out.plane(p), params,
+                RlPlan.Outcome oc = plan.run(d, valid, floor, true, out.plane(p), params,
                         RlPlan.Conventions.standard(tiny), settings.stopping(), p, listener, cancelled);
                 reports.add(new PlaneReport(oc.iterations(), oc.reason(), oc.history(), noise, masked,
                         floor == null ? 0 : floor.stars(), setup, oc.nanos()));

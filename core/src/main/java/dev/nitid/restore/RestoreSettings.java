@@ -57,14 +57,14 @@ public record RestoreSettings(Method method, EdgeHandling edges, Stopping stoppi
 
     /**
      * The best general setting we measured (see notes/restore.md): accelerated Richardson–Lucy,
-     * reflective edges, stop at χ²/N = 1, noise model estimated from the sky, sky floor around bright
+     * reflective edges, stop at χ²/N = 1, noise model estimated from the sky, ring floor around bright
      * stars, all available cores.
      *
      * @return the defaults
      */
     public static RestoreSettings defaults() {
         return new RestoreSettings(Method.ACCELERATED_RL, EdgeHandling.REFLECT, Stopping.chiSquare(),
-                NoiseModel.estimated(), StarProtection.skyFloor(), Double.POSITIVE_INFINITY,
+                NoiseModel.estimated(), StarProtection.ringFloor(), Double.POSITIVE_INFINITY,
                 DEFAULT_TV_WEIGHT, DEFAULT_DAMPING_SIGMA, Double.NaN,
                 Runtime.getRuntime().availableProcessors());
     }

@@ -17,7 +17,8 @@ public enum StarGuard {
      * mean of each 1-px annulus around the star rather than on each pixel: after every iteration an
      * annulus whose mean lies below {@code local sky − margin·σ} is lifted by the difference. A star plus sky
      * is never darker than the sky on average at any radius, so this removes the systematic dark ring while
-     * leaving the pixel noise untouched (no positive bias from clipping noise). Our own method.
+     * leaving the pixel noise untouched (no positive bias from clipping noise). The light added to the
+     * annuli is taken back from the star's 3×3 core, so each star keeps its flux. Our own method.
      */
     RING_FLOOR
 }

@@ -32,7 +32,7 @@ class GoldenRestoreTest {
         // convolution, no division by Kᵀ1 (reference/README.md §5.3).
         RlPlan plan = new RlPlan(64, 64, PSF, EdgeHandling.ZERO, Method.RICHARDSON_LUCY, 1);
         Image out = Image.create(64, 64);
-        RlPlan.Outcome oc = plan.run(INPUT.plane(0), null, null, out.plane(0),
+        RlPlan.Outcome oc = plan.run(INPUT.plane(0), null, null, false, out.plane(0),
                 new RlPlan.Params(Method.RICHARDSON_LUCY, 0, 1, 0, 1, 1),
                 new RlPlan.Conventions(0.5, 0.5, 1e-12, false, null), Stopping.fixed(10), 0, ProgressListener.NONE,
                 () -> false);

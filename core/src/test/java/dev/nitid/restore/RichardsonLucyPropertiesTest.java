@@ -78,7 +78,7 @@ class RichardsonLucyPropertiesTest {
         c.convolve(truth.plane(0), d);
         RlPlan plan = new RlPlan(w, h, psf, EdgeHandling.PERIODIC, Method.RICHARDSON_LUCY, 1);
         float[] out = new float[w * h];
-        plan.run(d, null, null, out, new RlPlan.Params(Method.RICHARDSON_LUCY, 0, 1, 0, 1, 1),
+        plan.run(d, null, null, false, out, new RlPlan.Params(Method.RICHARDSON_LUCY, 0, 1, 0, 1, 1),
                 new RlPlan.Conventions(Double.NaN, 1e-6, 0, true, truth.plane(0)), Stopping.fixed(1), 0,
                 ProgressListener.NONE, () -> false);
         // float32: the ratio d/(K o*) is 1 up to FFT round-off, ≈1e-6 (README's 1e-12 is for float64)

@@ -132,7 +132,11 @@ final class Scene {
         return worst;
     }
 
-    /** Median over bright stars of the half-maximum width 2·sqrt(area/π) of the star above its local sky. */
+    /**
+     * Median over bright stars of the Gaussian-equivalent FWHM {@code 2.3548·sqrt(F / (2π·peak))} with F the
+     * sky-subtracted flux within 6 px and peak the sky-subtracted brightest pixel (for a 2-D Gaussian,
+     * peak = F/(2πσ²); common practice, no source).
+     */
     double fwhm(Image img) {
         float[] a = img.plane(0);
         int w = img.width();
@@ -140,16 +144,18 @@ final class Scene {
         int k = 0;
         for (int[] s : brightStars) {
             double bg = localMedian(img, s, 20, 30);
-            double peak = a[s[1] * w + s[0]] - bg;
-            int area = 0;
-            for (int dy = -7; dy <= 7; dy++) {
-                for (int dx = -7; dx <= 7; dx++) {
-                    if (a[(s[1] + dy) * w + s[0] + dx] - bg >= peak / 2) {
-                        area++;
+            double peak = Double.NEGATIVE_INFINITY;
+            double flux = 0;
+            for (int dy = -6; dy <= 6; dy++) {
+                for (int dx = -6; dx <= 6; dx++) {
+                    if (dx * dx + dy * dy <= 36) {
+                        double val = a[(s[1] + dy) * w + s[0] + dx] - bg;
+                        flux += val;
+                        peak = Math.max(peak, val);
                     }
                 }
             }
-            v[k++] = 2 * Math.sqrt(area / Math.PI);
+            v[k++] = 2.3548 * Math.sqrt(flux / (2 * Math.PI * peak));
         }
         Arrays.sort(v);
         return v[v.length / 2];

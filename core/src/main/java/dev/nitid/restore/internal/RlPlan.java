@@ -149,6 +149,7 @@ public final class RlPlan {
      * @param observed  frame data, width × height (input, not modified); NaN/±∞ masked
      * @param valid     per-pixel weight of the frame, or null when every finite pixel counts (input, not modified)
      * @param floor     the star floor, or null (input, not modified)
+     * @param takeBack  after the last iteration, take the light the floor added to the rings back from the cores
      * @param out       restored frame, width × height (output, modified)
      * @param p         method parameters
      * @param conv0     iteration conventions
@@ -158,7 +159,7 @@ public final class RlPlan {
      * @param cancelled cancellation poll
      * @return the outcome
      */
-    public Outcome run(float[] observed, boolean[] valid, StarFloor.Floor floor, float[] out,
+    public Outcome run(float[] observed, boolean[] valid, StarFloor.Floor floor, boolean takeBack, float[] out,
                        Params p, Conventions conv0, Stopping stop, int plane, ProgressListener listener,
                        BooleanSupplier cancelled) {
         final int n = gw * gh;
@@ -254,6 +255,7 @@ public final class RlPlan {
         int k = 0;
         StopReason reason = null;
         double[] stats = new double[3];
+        double[] lifted = floor == null ? null : new double[Math.max(1, floor.stars())];
         while (reason == null) {
             if (k >= stop.maxIterations()) {
                 reason = stop.rule() == StopRule.FIXED_COUNT ? StopReason.FIXED_COUNT_REACHED : StopReason.ITERATION_CAP;
@@ -323,7 +325,7 @@ public final class RlPlan {
                 change = tot > 0 ? diff / tot : 0;
             }
             if (floor != null) {
-                floor.apply(o);
+                floor.apply(o, lifted);
             }
             k++;
             IterationRecord rec = new IterationRecord(plane, k, logL, chi2, change, System.nanoTime() - t0);
@@ -346,6 +348,10 @@ public final class RlPlan {
                     }
                 }
             }
+        }
+        if (floor != null && k > 0 && takeBack) {
+            // the ring the last update dug was light moved into the cores: return it
+            floor.takeBack(o, lifted);
         }
         long nanos = System.nanoTime() - t0;
         for (int y = 0; y < height; y++) {

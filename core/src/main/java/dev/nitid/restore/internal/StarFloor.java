@@ -26,30 +26,90 @@ public final class StarFloor {
      * @param indices    grid pixel indices, group after group
      * @param groupStart where each group starts in {@code indices}; one extra entry at the end
      * @param groupFloor the floor of each group
+     * @param starGroups for ring groups: star s owns groups {@code starGroups[s] .. starGroups[s+1]−1}; null
+     *                   for per-pixel groups
+     * @param coreIndices for ring groups: the core pixels of each star (round(r) ≤ 1), star after star
+     * @param coreStart  where each star's core starts in {@code coreIndices}; one extra entry at the end
      * @param stars      number of protected stars
      * @param radius     protected radius, px
      */
-    public record Floor(int[] indices, int[] groupStart, float[] groupFloor, int stars, double radius) {
+    public record Floor(int[] indices, int[] groupStart, float[] groupFloor, int[] starGroups, int[] coreIndices,
+                        int[] coreStart, int stars, double radius) {
         /**
          * Lifts every group whose mean is below its floor by the missing amount (a single pixel is clamped).
          *
-         * @param o the estimate on the grid (input and output, modified)
+         * @param o     the estimate on the grid (input and output, modified)
+         * @param added for ring groups, the light added around each star (output, modified; may be null)
          */
-        public void apply(float[] o) {
-            for (int g = 0; g < groupFloor.length; g++) {
-                int a = groupStart[g];
-                int b = groupStart[g + 1];
-                double sum = 0;
-                for (int j = a; j < b; j++) {
-                    sum += o[indices[j]];
+        public void apply(float[] o, double[] added) {
+            if (starGroups == null) {
+                for (int g = 0; g < groupFloor.length; g++) {
+                    lift(o, g);
                 }
-                float lift = (float) (groupFloor[g] - sum / (b - a));
-                if (lift > 0) {
-                    for (int j = a; j < b; j++) {
-                        o[indices[j]] += lift;
+                return;
+            }
+            for (int s = 0; s < stars; s++) {
+                double sum = 0;
+                for (int g = starGroups[s]; g < starGroups[s + 1]; g++) {
+                    sum += lift(o, g);
+                }
+                if (added != null) {
+                    added[s] = sum;
+                }
+            }
+        }
+
+        /**
+         * Takes light back from each star's core, in proportion to each core pixel's excess over the
+         * star's floor: a dark ring is light that the iteration moved into the core, so what the last
+         * {@link #apply} added to a star's annuli is returned from its core, keeping the star's flux.
+         *
+         * @param o      the estimate on the grid (input and output, modified)
+         * @param amount light to take from each star (input, not modified)
+         */
+        public void takeBack(float[] o, double[] amount) {
+            if (starGroups == null) {
+                return;
+            }
+            for (int s = 0; s < stars; s++) {
+                if (!(amount[s] > 0)) {
+                    continue;
+                }
+                float fl = Float.POSITIVE_INFINITY;
+                for (int g = starGroups[s]; g < starGroups[s + 1]; g++) {
+                    fl = Math.min(fl, groupFloor[g]);
+                }
+                double excess = 0;
+                for (int j = coreStart[s]; j < coreStart[s + 1]; j++) {
+                    excess += Math.max(0, o[coreIndices[j]] - fl);
+                }
+                // never take more than the core holds above the floor
+                double f = excess > 0 ? Math.min(1.0, amount[s] / excess) : 0;
+                for (int j = coreStart[s]; j < coreStart[s + 1]; j++) {
+                    int i = coreIndices[j];
+                    float e = o[i] - fl;
+                    if (e > 0) {
+                        o[i] -= (float) (f * e);
                     }
                 }
             }
+        }
+
+        private double lift(float[] o, int g) {
+            int a = groupStart[g];
+            int b = groupStart[g + 1];
+            double sum = 0;
+            for (int j = a; j < b; j++) {
+                sum += o[indices[j]];
+            }
+            float lift = (float) (groupFloor[g] - sum / (b - a));
+            if (lift > 0) {
+                for (int j = a; j < b; j++) {
+                    o[indices[j]] += lift;
+                }
+                return (double) lift * (b - a);
+            }
+            return 0;
         }
     }
 
@@ -134,7 +194,7 @@ public final class StarFloor {
             }
         }
         if (stars.isEmpty()) {
-            return new Floor(new int[0], new int[] {0}, new float[0], 0, radius);
+            return new Floor(new int[0], new int[] {0}, new float[0], null, new int[0], new int[] {0}, 0, radius);
         }
         int ri = (int) Math.ceil(radius);
         int ro = ri + SKY_GAP + SKY_WIDTH;
@@ -146,6 +206,9 @@ public final class StarFloor {
         List<Integer> ringIdx = new ArrayList<>();
         List<Integer> ringStart = new ArrayList<>();
         List<Float> ringFloor = new ArrayList<>();
+        List<Integer> starGroups = new ArrayList<>();
+        List<Integer> core = new ArrayList<>();
+        List<Integer> coreStart = new ArrayList<>();
         for (int[] s : stars) {
             int n = 0;
             for (int dy = -ro; dy <= ro; dy++) {
@@ -166,8 +229,19 @@ public final class StarFloor {
             double local = (n & 1) == 1 ? ann[n / 2] : 0.5 * (ann[n / 2 - 1] + ann[n / 2]);
             float fv = (float) (local - marginSigma * sigma);
             if (rings) {
-                // annulus b holds the pixels with round(r) = b, for b = 1..ri (the centre pixel is the star)
-                for (int b = 1; b <= ri; b++) {
+                starGroups.add(ringStart.size());
+                coreStart.add(core.size());
+                for (int dy = -1; dy <= 1; dy++) {
+                    for (int dx = -1; dx <= 1; dx++) {
+                        int xx = s[0] + dx;
+                        int yy = s[1] + dy;
+                        if (Math.round(Math.hypot(dx, dy)) <= 1 && xx >= 0 && yy >= 0 && xx < width && yy < height) {
+                            core.add((yy + padY) * gridWidth + xx + padX);
+                        }
+                    }
+                }
+                // annulus b holds the pixels with round(r) = b, for b = 2..ri (b ≤ 1 is the star's core)
+                for (int b = 2; b <= ri; b++) {
                     int before = ringIdx.size();
                     for (int dy = -b - 1; dy <= b + 1; dy++) {
                         for (int dx = -b - 1; dx <= b + 1; dx++) {
@@ -206,7 +280,12 @@ public final class StarFloor {
                 fl[g] = ringFloor.get(g);
             }
             start[fl.length] = idx.length;
-            return new Floor(idx, start, fl, stars.size(), radius);
+            starGroups.add(ringStart.size());
+            coreStart.add(core.size());
+            int[] sg = starGroups.stream().mapToInt(Integer::intValue).toArray();
+            int[] ci = core.stream().mapToInt(Integer::intValue).toArray();
+            int[] cs = coreStart.stream().mapToInt(Integer::intValue).toArray();
+            return new Floor(idx, start, fl, sg, ci, cs, sg.length - 1, radius);
         }
         int count = 0;
         for (float v : f) {
@@ -231,7 +310,7 @@ public final class StarFloor {
         for (int g = 0; g <= count; g++) {
             start[g] = g;
         }
-        return new Floor(idx, start, val, stars.size(), radius);
+        return new Floor(idx, start, val, null, new int[0], new int[] {0}, stars.size(), radius);
     }
 
     private static boolean ok(float[] d, boolean[] valid, int i) {
