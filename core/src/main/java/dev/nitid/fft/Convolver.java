@@ -53,15 +53,16 @@ public final class Convolver implements AutoCloseable {
     private final Engine engine;
     private final boolean tiled;
 
-    private Convolver(int width, int height, Image psf, ConvolutionSettings settings) {
+    private Convolver(int width, int height, Image psf, ConvolutionSettings settings, int forceTileW,
+                      int forceTileH) {
         this.width = width;
         this.height = height;
         this.settings = settings;
         Geometry g = new Geometry(width, height, psf.width(), psf.height(), settings.boundary());
         int fftW = FftSizes.nextFast(g.extW);
         int fftH = FftSizes.nextFast(g.extH);
-        int tw = tileSize(width, psf.width(), fftW);
-        int th = tileSize(height, psf.height(), fftH);
+        int tw = forceTileW > 0 ? forceTileW : tileSize(width, psf.width(), fftW);
+        int th = forceTileH > 0 ? forceTileH : tileSize(height, psf.height(), fftH);
         boolean canTile = tw < fftW || th < fftH;
         this.tiled = switch (settings.tiling()) {
             case WHOLE_PLANE -> false;
@@ -113,7 +114,16 @@ public final class Convolver implements AutoCloseable {
         if (settings == null) {
             throw new IllegalArgumentException("settings is null: pass ConvolutionSettings.defaults()");
         }
-        return new Convolver(width, height, psf, settings);
+        return new Convolver(width, height, psf, settings, 0, 0);
+    }
+
+    /** A tiled plan with the given tile sizes (each ≥ the PSF size), for tests of many small tiles. */
+    static Convolver createTiled(int width, int height, Image psf, ConvolutionSettings settings, int tw, int th) {
+        Checks.psfUsable(psf, width, height);
+        if (tw < psf.width() || th < psf.height()) {
+            throw new IllegalArgumentException("tile " + tw + "x" + th + " is smaller than the PSF");
+        }
+        return new Convolver(width, height, psf, settings.withTiling(Tiling.TILED), tw, th);
     }
 
     /** @return image columns this plan accepts */
