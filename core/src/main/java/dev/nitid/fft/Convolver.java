@@ -23,12 +23,10 @@ import dev.nitid.image.Image;
  * Either one real FFT of the extended image ({@code W + pw − 1} × {@code H + ph − 1}) padded to the
  * next fast size ({@link FftSizes#nextFast}; {@link #fftWidth()}/{@link #fftHeight()} report it), or
  * overlap-save tiles of a fast size with a halo of PSF size − 1 ({@link Tiling}). With
- * {@link Tiling#AUTO} the rule is: tiles when the whole-plane FFT grid is larger than
- * {@value #AUTO_TILE_MIN_GRID}² pixels and the PSF is at most {@value #AUTO_TILE_MAX_PSF} pixels
- * wide and high, the whole plane otherwise (measured with the JMH {@code ConvolveBenchmark}; see the
- * project's benchmark notes).
- * The tile size per axis minimises the transform work {@code ⌈n/(T − p + 1)⌉ · T · log₂T} over fast
- * sizes {@code T ≤ }{@value #MAX_TILE}.
+ * {@link Tiling#AUTO} the rule is: tiles when the whole-plane FFT grid has at least 768² pixels
+ * and a tile smaller than it exists (see {@link #tileSize}), the whole plane otherwise. Measured on one
+ * thread (CPU time, {@code notes/fft.md}): 1024² image, 31² PSF: whole 49 ms, 256² tiles 22 ms;
+ * 4096²: whole 491 ms, tiles 303 ms; 512²: whole 9.0 ms, tiles 9.5 ms.
  *
  * <h2>Cost, memory and threads</h2>
  * The plan (FFT sizes, the PSF's transfer function, scratch) is built once in {@link #create}; calls
@@ -40,12 +38,14 @@ import dev.nitid.image.Image;
  * (an unreachable plan stops them too). Not thread-safe: one caller at a time.
  */
 public final class Convolver implements AutoCloseable {
-    /** Smallest whole-plane FFT side (pixels) from which {@link Tiling#AUTO} chooses tiles. */
-    static final int AUTO_TILE_MIN_GRID = 1536;
-    /** Largest PSF side (pixels) for which {@link Tiling#AUTO} chooses tiles. */
-    static final int AUTO_TILE_MAX_PSF = 129;
-    /** Largest tile side considered (pixels): 1024 × 514 floats ≈ 2 MB, about an L2/L3 slice. */
+    /** Smallest whole-plane FFT grid (pixels) for which {@link Tiling#AUTO} chooses tiles: 768². */
+    static final long AUTO_TILE_MIN_PIXELS = 768L * 768;
+    /** Smallest tile side considered: below it per-tile overhead dominates (measured, notes/fft.md). */
+    static final int MIN_TILE = 128;
+    /** Largest tile side considered (pixels): 1024 × 1026 floats ≈ 4 MB, about a last-level cache. */
     static final int MAX_TILE = 1024;
+    /** Per-row cost of a tile in units of one radix-2 stage, fitted to the measurements in notes/fft.md. */
+    static final double TILE_OVERHEAD = 3.5;
 
     private final int width;
     private final int height;
@@ -67,8 +67,7 @@ public final class Convolver implements AutoCloseable {
         this.tiled = switch (settings.tiling()) {
             case WHOLE_PLANE -> false;
             case TILED -> true;
-            case AUTO -> canTile && Math.max(fftW, fftH) >= AUTO_TILE_MIN_GRID
-                    && Math.max(psf.width(), psf.height()) <= AUTO_TILE_MAX_PSF;
+            case AUTO -> canTile && (long) fftW * fftH >= AUTO_TILE_MIN_PIXELS;
         };
         WorkerPool pool = new WorkerPool(settings.threads());
         try {
@@ -82,16 +81,22 @@ public final class Convolver implements AutoCloseable {
     }
 
     /**
-     * The tile side for one axis: the fast size {@code T} (with {@code T > p − 1}) minimising
-     * {@code ⌈n/(T − p + 1)⌉ · T · log₂T}, at most {@link #MAX_TILE} and at most the whole-plane size.
+     * The tile side for one axis: the power of two {@code T} in [{@value #MIN_TILE}, {@value #MAX_TILE}]
+     * (and {@code T ≥ 2p}) minimising {@code ⌈n/(T − p + 1)⌉ · T · (log₂T + }{@value #TILE_OVERHEAD}{@code )};
+     * the whole-plane size if no such tile is smaller than it. Powers of two because JTransforms' split-radix
+     * code runs them 1.5–2× faster per {@code n log n} than its mixed-radix code (measured in notes/fft.md);
+     * the constant term stands for per-row work (copies, multiply) and was fitted to the same measurements.
      */
     static int tileSize(int n, int p, int whole) {
         int best = whole;
         double bestCost = Double.POSITIVE_INFINITY;
-        for (int t = Math.max(2, FftSizes.nextFast(2 * p)); t <= Math.min(MAX_TILE, whole); t = FftSizes.nextFast(t + 1)) {
+        for (int t = MIN_TILE; t <= MAX_TILE && t < whole; t *= 2) {
+            if (t < 2 * p) {
+                continue;
+            }
             int valid = t - p + 1;
-            double cost = Math.ceil((double) n / valid) * t * (Math.log(t) / Math.log(2));
-            if (cost < bestCost) {
+            double cost = Math.ceil((double) n / valid) * t * (Math.log(t) / Math.log(2) + TILE_OVERHEAD);
+            if (cost <= bestCost) {
                 bestCost = cost;
                 best = t;
             }

@@ -86,7 +86,17 @@ final class Geometry {
     void loadExtRow(float[] in, int ye, int xe0, int n, float[] dst, int dstOff) {
         int rowStart = mapY[ye] * w;
         int end = Math.min(n, extW - xe0);
-        for (int c = 0; c < end; c++) {
+        // Columns that are the image itself (not halo) are one contiguous copy.
+        int inner0 = Math.max(0, Math.min(end, offX - xe0));
+        int inner1 = Math.max(inner0, Math.min(end, offX + w - xe0));
+        for (int c = 0; c < inner0; c++) {
+            int sx = mapX[xe0 + c];
+            dst[dstOff + c] = sx >= 0 ? in[rowStart + sx] : 0f;
+        }
+        if (inner1 > inner0) {
+            System.arraycopy(in, rowStart + xe0 + inner0 - offX, dst, dstOff + inner0, inner1 - inner0);
+        }
+        for (int c = inner1; c < end; c++) {
             int sx = mapX[xe0 + c];
             dst[dstOff + c] = sx >= 0 ? in[rowStart + sx] : 0f;
         }
