@@ -1,6 +1,11 @@
 package dev.nitid.bench.quality;
 
 import dev.nitid.image.Image;
+import dev.nitid.restore.Method;
+import dev.nitid.restore.RestorationResult;
+import dev.nitid.restore.RestoreSettings;
+import dev.nitid.restore.Restorers;
+import dev.nitid.restore.StarProtection;
 import dev.nitid.quality.QualityReference;
 import dev.nitid.quality.QualityReport;
 import dev.nitid.quality.QualitySettings;
@@ -14,7 +19,6 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
-import java.util.function.BiFunction;
 
 /**
  * The quality harness's entry point.
@@ -24,7 +28,8 @@ import java.util.function.BiFunction;
  * </pre>
  * Builds each scene, writes {@code OUT_DIR/SCENE/{observed,truth,psf}.npy}, runs
  * {@code benchmarks/scripts/quality/skimage_rl.py OUT_DIR/SCENE} with {@link #python()} (scikit-image's RL, 30 iterations, clip off),
- * restores with every method listed in {@link #methods()}, and prints one table per scene on stdout.
+ * restores with every setting listed in {@link #methods()} (the {@code dev.nitid.restore} methods on main), and
+ * prints one table per scene on stdout.
  */
 public final class QualityHarness {
     /** Iterations of the fixed-count runs: the count the scikit-image figures use. */
@@ -33,15 +38,23 @@ public final class QualityHarness {
     private QualityHarness() {
     }
 
-    /** A named restoration of a scene's observed image with its true PSF. */
-    record Method(String name, BiFunction<Image, Image, Image> run) {
+    /** A named restoration setting, run on a scene's observed image with its true PSF. */
+    record Entry(String name, RestoreSettings settings) {
     }
 
-    static List<Method> methods() {
-        int threads = Math.max(1, Runtime.getRuntime().availableProcessors());
-        List<Method> m = new ArrayList<>();
-        m.add(new Method("baseline RL (harness), 30 it", (d, p) -> BaselineRl.restore(d, p, ITERATIONS, threads)));
-        m.add(new Method("baseline RL (harness), 100 it", (d, p) -> BaselineRl.restore(d, p, 100, threads)));
+    /** @return the restorations in the table: add a line here to add a row */
+    static List<Entry> methods() {
+        RestoreSettings d = RestoreSettings.defaults();
+        RestoreSettings plain = d.withMethod(Method.RICHARDSON_LUCY).withIterations(ITERATIONS);
+        List<Entry> m = new ArrayList<>();
+        m.add(new Entry("plain RL, 30 it, no protection", plain.withProtection(StarProtection.none())));
+        m.add(new Entry("plain RL, 30 it, sky floor", plain.withProtection(StarProtection.skyFloor())));
+        m.add(new Entry("plain RL, 30 it, ring floor", plain.withProtection(StarProtection.ringFloor())));
+        m.add(new Entry("defaults (accelerated RL, auto stop, ring floor)", d));
+        m.add(new Entry("TV-RL, auto stop, ring floor", d.withMethod(Method.TV_RL)));
+        m.add(new Entry("damped RL, auto stop, ring floor", d.withMethod(Method.DAMPED_RL)));
+        m.add(new Entry("Wiener (K estimated)", d.withMethod(Method.WIENER)));
+        m.add(new Entry("Tikhonov", d.withMethod(Method.TIKHONOV)));
         return m;
     }
 
@@ -83,13 +96,15 @@ public final class QualityHarness {
                 f.observed().width(), f.observed().height(), f.catalogue().size(), settings.seed(),
                 ref.inputSigma(), ref.inputFwhm(), ref.fwhmStars().size(), ref.ringStars().size(),
                 ref.nebulaPixels(), build);
-        o.println("| method | FWHM ratio | ring depth (sigma) | error vs truth | flux ratio | noise ratio | time (s) |");
-        o.println("|---|---:|---:|---:|---:|---:|---:|");
-        row(o, "input (no restoration)", ref.evaluate(f.observed()), 0);
-        for (Method m : methods()) {
+        o.println("| method | iterations (stop) | FWHM ratio | ring depth (sigma) | error vs truth | flux ratio | noise ratio | time (s) |");
+        o.println("|---|---|---:|---:|---:|---:|---:|---:|");
+        row(o, "input (no restoration)", "-", ref.evaluate(f.observed()), 0);
+        for (Entry m : methods()) {
             long t = System.nanoTime();
-            Image r = m.run().apply(f.observed(), f.psf());
-            row(o, m.name(), ref.evaluate(r), (System.nanoTime() - t) / 1e9);
+            RestorationResult r = Restorers.create(m.settings()).restore(f.observed(), f.psf());
+            double secs = (System.nanoTime() - t) / 1e9;
+            String it = m.settings().method().iterative() ? r.iterations() + " (" + r.stopReason() + ")" : "-";
+            row(o, m.name(), it, ref.evaluate(r.image()), secs);
         }
         if (python) {
             Path script = Path.of("benchmarks/scripts/quality/skimage_rl.py");
@@ -100,9 +115,10 @@ public final class QualityHarness {
             Path result = dir.resolve("skimage_rl.npy");
             if (code == 0 && Files.exists(result)) {
                 double secs = Double.parseDouble(Files.readString(dir.resolve("skimage_rl.seconds")).trim());
-                row(o, "scikit-image " + log + " richardson_lucy, " + ITERATIONS + " it", ref.evaluate(Npy.read(result)), secs);
+                row(o, "scikit-image " + log + " richardson_lucy (clip=False)", String.valueOf(ITERATIONS),
+                        ref.evaluate(Npy.read(result)), secs);
             } else {
-                o.println("| scikit-image RL | (failed: " + log.replace('\n', ' ') + ") | | | | | |");
+                o.println("| scikit-image RL | (failed: " + log.replace('\n', ' ') + ") | | | | | | |");
             }
         }
     }
@@ -116,8 +132,8 @@ public final class QualityHarness {
         return Files.isExecutable(Path.of("/usr/bin/python3")) ? "/usr/bin/python3" : "python3";
     }
 
-    static void row(PrintStream o, String name, QualityReport r, double seconds) {
-        o.printf(Locale.ROOT, "| %s | %.3f | %.2f | %.3f | %.3f | %.3f | %.2f |%n", name, r.fwhmRatio(),
+    static void row(PrintStream o, String name, String iterations, QualityReport r, double seconds) {
+        o.printf(Locale.ROOT, "| %s | %s | %.3f | %.2f | %.3f | %.3f | %.3f | %.2f |%n", name, iterations, r.fwhmRatio(),
                 r.ringDepth(), r.errorRatio(), r.fluxRatio(), r.noiseRatio(), seconds);
     }
 }

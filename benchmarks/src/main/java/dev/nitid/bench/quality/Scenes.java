@@ -1,5 +1,6 @@
 package dev.nitid.bench.quality;
 
+import dev.nitid.psf.PupilPsf;
 import dev.nitid.synth.DetectorSettings;
 import dev.nitid.synth.ExtendedSettings;
 import dev.nitid.synth.FieldSettings;
@@ -39,12 +40,15 @@ final class Scenes {
     }
 
     /**
-     * @return diffraction-limited: an invented space-borne 0.4 m telescope, 33 % central obstruction, four
-     *         vanes 1.5 % of the aperture wide, sampled at 2.4 px per λ/D (Airy core FWHM ≈ 2.5 px)
+     * @return diffraction-limited: an invented space-borne telescope with a 33 % central obstruction and four
+     *         vanes 1.5 % of the aperture wide, monochromatic 550 nm, sampled at 2.4 px per λ/D (Airy core
+     *         FWHM ≈ 2.5 px); the PSF is the psf package's pupil model rendered once (stars on pixel centres)
      */
     static FieldSettings diffraction() {
+        PupilPsf pupil = PupilPsf.ofSampling(1 / 2.4, 550).withObstruction(0.33)
+                .withVanes(4, 0.015 * 100, 0); // ofSampling's aperture is 100 mm
         return new FieldSettings(SIZE, SIZE, 20261202L, stars(), extended(),
-                ImagePsf.of(PupilPsf.obstructedAiry(2.4, 0.33, 4, 0.015, 101), "obstructed Airy with 4 vanes"),
+                ImagePsf.of(pupil.render(101, 3, 0, 0), "pupil model: eps 0.33, 4 vanes 1.5% of D, 2.4 px per lambda/D"),
                 detector());
     }
 }
