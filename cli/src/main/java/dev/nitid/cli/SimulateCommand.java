@@ -72,6 +72,11 @@ public final class SimulateCommand implements Callable<Integer> {
                     + "clipped to 0..65535) or -32 (float, default). Truth and PSF are always -32.")
     int bitpix = -32;
 
+    @Option(names = "--pixel-scale", paramLabel = "ARCSEC",
+            description = "Pixel scale to record in the headers as a linear WCS (CDELT1/2 in degrees), so that "
+                    + "other tools can report sizes in arcseconds (default: none recorded).")
+    double pixelScale = Double.NaN;
+
     @Option(names = "--stars", paramLabel = "N", description = "Number of stars (default: ${DEFAULT-VALUE}).")
     int stars = 200;
 
@@ -160,6 +165,9 @@ public final class SimulateCommand implements Callable<Integer> {
         }
         if (gradient.length != 2) {
             throw new IllegalArgumentException("--fwhm-gradient needs two numbers GX,GY (for example 0.2,0)");
+        }
+        if (!Double.isNaN(pixelScale) && !(pixelScale > 0 && Double.isFinite(pixelScale))) {
+            throw new IllegalArgumentException("--pixel-scale is " + pixelScale + ", but it must be a positive number of arcseconds");
         }
         int[] wh = parseSize(size);
         FieldPsf psf = psf();
@@ -301,6 +309,15 @@ public final class SimulateCommand implements Callable<Integer> {
             if (m.shape() == ModelPsf.Shape.MOFFAT) {
                 h = h.with("PSFBETA", m.beta(), "Moffat power index");
             }
+        }
+        if (!Double.isNaN(pixelScale)) {
+            // Linear WCS (Greisen & Calabretta 2002, A&A 395, 1061): x grows to the west, hence CDELT1 < 0.
+            h = h.with("CRPIX1", (s.width() + 1) / 2.0, "reference pixel: field centre")
+                    .with("CRPIX2", (s.height() + 1) / 2.0, "reference pixel: field centre")
+                    .with("CDELT1", -pixelScale / 3600, "[deg] pixel scale along x")
+                    .with("CDELT2", pixelScale / 3600, "[deg] pixel scale along y")
+                    .with("CUNIT1", "deg", "")
+                    .with("CUNIT2", "deg", "");
         }
         if (Double.isFinite(d.saturation())) {
             h = h.with("SATURATE", d.saturation(), "[adu] level where a frame clips");

@@ -74,6 +74,15 @@ class SimulateCommandTest {
     }
 
     @Test
+    void pixelScaleIsReadBackFromTheWcs() throws Exception {
+        // Worked example, reference README §4: 3.76 µm pixels at 1000 mm give 0.775556 arcsec/px (astropy 5.2.1).
+        Path out = dir.resolve("scale.fits");
+        assertEquals(ExitCode.OK, run(small(out, "--pixel-scale", "0.775556")).code());
+        double s = dev.nitid.fits.Wcs.pixelScaleArcsec(FitsReader.read(out).header()).orElseThrow();
+        assertEquals(0.775556, s, 1e-9);
+    }
+
+    @Test
     void sameSeedGivesTheSameFile() throws Exception {
         Path a = dir.resolve("a.fits");
         Path b = dir.resolve("b.fits");
