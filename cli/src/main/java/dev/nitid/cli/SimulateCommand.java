@@ -130,7 +130,7 @@ public final class SimulateCommand implements Callable<Integer> {
     @Option(names = "--psf-size", paramLabel = "PX", description = "Side of the PSF stamp, odd (default: about 8 FWHM for Moffat, 4 for Gaussian).")
     int psfSize = 0;
 
-    @Option(names = "--fwhm-gradient", paramLabel = "GX,GY", split = ",",
+    @Option(names = "--fwhm-gradient", paramLabel = "GX,GY", split = ",", arity = "1",
             description = "Linear change of the FWHM across the field, as a fraction over the full width and height, "
                     + "e.g. 0.2,0 makes stars 20%% wider at the right edge than at the left (default: none).")
     double[] gradient = {0, 0};

@@ -130,6 +130,23 @@ class SimulateCommandTest {
     }
 
     @Test
+    void psfFileIsUsedAsGivenWithStarsOnPixelCentres() throws Exception {
+        // Round trip: the PSF written by one run drives a second run; its PSF output is the same kernel.
+        Path first = dir.resolve("one.fits");
+        assertEquals(ExitCode.OK, run(small(first, "--profile", "gaussian")).code());
+        Path second = dir.resolve("two.fits");
+        Run r = run(small(second, "--psf-file", dir.resolve("one-psf.fits").toString()));
+        assertEquals(ExitCode.OK, r.code(), r.err());
+        float[] a = FitsReader.read(dir.resolve("one-psf.fits")).image().plane(0);
+        float[] b = FitsReader.read(dir.resolve("two-psf.fits")).image().plane(0);
+        dev.nitid.testdata.ArrayAssert.assertClose(a, b, (int) Math.round(Math.sqrt(a.length)), 1e-6, 1e-9);
+        for (String line : Files.readAllLines(dir.resolve("two-stars.csv")).subList(1, 13)) {
+            double x = Double.parseDouble(line.split(",")[0]);
+            assertEquals(Math.rint(x), x, 0.0, "star on a pixel centre: " + line);
+        }
+    }
+
+    @Test
     void missingPsfFileExits66() {
         Run r = run(small(dir.resolve("h.fits"), "--psf-file", dir.resolve("nope.fits").toString()));
         assertEquals(ExitCode.NO_INPUT, r.code(), r.err());
