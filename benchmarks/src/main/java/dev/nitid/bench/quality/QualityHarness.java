@@ -26,7 +26,8 @@ import java.util.Locale;
  * <pre>
  * java -cp benchmarks/target/benchmarks.jar dev.nitid.bench.quality.QualityHarness [OUT_DIR] [--no-python]
  * </pre>
- * Builds each scene, writes {@code OUT_DIR/SCENE/{observed,truth,psf}.npy}, runs
+ * Builds each scene, writes {@code OUT_DIR/SCENE/{observed,truth,psf}.npy} (and each restoration as
+ * {@code OUT_DIR/SCENE/METHOD.npy}), runs
  * {@code benchmarks/scripts/quality/skimage_rl.py OUT_DIR/SCENE} with {@link #python()} (scikit-image's RL, 30 iterations, clip off),
  * restores with every setting listed in {@link #methods()} (the {@code dev.nitid.restore} methods on main), and
  * prints one table per scene on stdout.
@@ -105,6 +106,7 @@ public final class QualityHarness {
             double secs = (System.nanoTime() - t) / 1e9;
             String it = m.settings().method().iterative() ? r.iterations() + " (" + r.stopReason() + ")" : "-";
             row(o, m.name(), it, ref.evaluate(r.image()), secs);
+            Npy.write(dir.resolve(slug(m.name()) + ".npy"), r.image());
         }
         if (python) {
             Path script = Path.of("benchmarks/scripts/quality/skimage_rl.py");
@@ -121,6 +123,11 @@ public final class QualityHarness {
                 o.println("| scikit-image RL | (failed: " + log.replace('\n', ' ') + ") | | | | | | |");
             }
         }
+    }
+
+    /** @return a file-name form of a method name: lower case, runs of other characters as one '-' */
+    static String slug(String name) {
+        return name.toLowerCase(Locale.ROOT).replaceAll("[^a-z0-9]+", "-").replaceAll("^-|-$", "");
     }
 
     /** The interpreter with Debian's scipy/scikit-image: {@code $NITID_PYTHON}, else /usr/bin/python3, else python3. */
