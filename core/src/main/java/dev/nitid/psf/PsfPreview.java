@@ -72,6 +72,16 @@ public final class PsfPreview {
         return out;
     }
 
+    /**
+     * The figures on one line, as the preview's second title line shows them.
+     *
+     * @param f the figures
+     * @return e.g. {@code FWHM 2.285 px = 0.566"   r50 1.68 px   peak 0.1155   Strehl 0.923}
+     */
+    public static String summaryLine(PsfFigures f) {
+        return summary(f);
+    }
+
     static String summary(PsfFigures f) {
         StringBuilder sb = new StringBuilder();
         sb.append(String.format(Locale.ROOT, "FWHM %.3f px", f.fwhmPx()));
