@@ -148,13 +148,13 @@ public final class PsfOptions {
                 refuse("--beta", beta, "moffat");
                 refuseOptics();
                 double f = need("--fwhm", fwhm, "the FWHM in pixels, e.g. --fwhm 3");
-                yield GaussianPsf.ofFwhmEllipticity(f, orZero(ellipticity, "--ellipticity"), orZero(angle, "--angle"));
+                yield GaussianPsf.ofFwhmEllipticity(f, orZero(ellipticity), orZero(angle));
             }
             case moffat -> {
                 refuseOptics();
                 double f = need("--fwhm", fwhm, "the FWHM in pixels, e.g. --fwhm 3");
                 double b = beta == null ? DEFAULT_BETA : beta;
-                yield MoffatPsf.ofFwhmEllipticity(f, orZero(ellipticity, "--ellipticity"), b, orZero(angle, "--angle"));
+                yield MoffatPsf.ofFwhmEllipticity(f, orZero(ellipticity), b, orZero(angle));
             }
             case airy -> {
                 refuse("--fwhm", fwhm, "gaussian or moffat");
@@ -295,7 +295,7 @@ public final class PsfOptions {
         return value;
     }
 
-    private static double orZero(Double v, String name) {
+    private static double orZero(Double v) {
         return v == null ? 0 : v;
     }
 }

@@ -123,4 +123,23 @@ class PsfModelContractTest {
         assertTrue(Math.abs(f.centroidX() - 20 - dx) < 0.05 && Math.abs(f.centroidY() - 20 - dy) < 0.05,
                 "centroid (" + f.centroidX() + ", " + f.centroidY() + ") for offset (" + dx + ", " + dy + ")");
     }
+
+    /**
+     * Results do not depend on the number of threads (STYLE.md: explicit pairs): the same render inside a
+     * one-thread and a four-thread fork-join pool gives identical bits.
+     */
+    @ParameterizedTest(name = "{0}")
+    @MethodSource("models")
+    void identicalWhateverTheThreadCount(Named named) throws Exception {
+        java.util.concurrent.ForkJoinPool one = new java.util.concurrent.ForkJoinPool(1);
+        java.util.concurrent.ForkJoinPool four = new java.util.concurrent.ForkJoinPool(4);
+        try {
+            Image a = one.submit(() -> named.model().render(27, 3, 0.17, -0.31)).get();
+            Image b = four.submit(() -> named.model().render(27, 3, 0.17, -0.31)).get();
+            org.junit.jupiter.api.Assertions.assertArrayEquals(a.plane(0), b.plane(0), named.name());
+        } finally {
+            one.shutdown();
+            four.shutdown();
+        }
+    }
 }
