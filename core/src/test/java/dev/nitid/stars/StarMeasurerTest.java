@@ -1,5 +1,6 @@
 package dev.nitid.stars;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -185,7 +186,37 @@ class StarMeasurerTest {
                 sy += v * Math.pow(j - my, 3);
             }
         }
-        assertTrue(sx > 0 && sx > 5 * Math.abs(sy), "skewness x " + sx + ", y " + sy);
+        assertTrue(sx > 0 && sx > 3 * Math.abs(sy), "skewness x " + sx + ", y " + sy);
+    }
+
+    @Test
+    void regionsCoverTheField() {
+        assertEquals(9, moffat.regions().size());
+        int total = 0;
+        for (RegionSummary r : moffat.regions()) {
+            total += r.count();
+            if (r.count() > 5) {
+                assertEquals(Math.sqrt(MAJOR * MINOR), r.fwhm(), 0.05 * Math.sqrt(MAJOR * MINOR), "region " + r);
+            }
+        }
+        assertEquals(moffat.stars().size(), total);
+    }
+
+    /** Results do not depend on the thread count (explicit pair, not reflection). */
+    @Test
+    void singleThreadEqualsTwoThreads() {
+        MeasureSettings s = MeasureSettings.defaults().withDetectionFwhm(3.4).withSaturation(SATURATION);
+        Image img = Image.wrap(600, 500, moffatField.pixels);
+        StarMeasurement one = StarMeasurer.measure(img, s.withThreads(1));
+        StarMeasurement two = StarMeasurer.measure(img, s.withThreads(2));
+        assertEquals(one.stars().size(), two.stars().size());
+        for (int i = 0; i < one.stars().size(); i++) {
+            assertEquals(one.stars().get(i).x(), two.stars().get(i).x(), 0.0);
+            assertEquals(one.stars().get(i).gaussian().fwhm(), two.stars().get(i).gaussian().fwhm(), 0.0);
+        }
+        assertEquals(one.rejected(), two.rejected());
+        assertEquals(one.best().fwhm(), two.best().fwhm(), 0.0);
+        assertArrayEquals(one.psf().plane(0), two.psf().plane(0), 0f);
     }
 
     static double[] nearest(List<double[]> truth, double x, double y) {
