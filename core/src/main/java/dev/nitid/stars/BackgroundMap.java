@@ -234,11 +234,32 @@ public final class BackgroundMap {
         if (out.length != width * height || (pixels != null && pixels.length != out.length)) {
             throw new IllegalArgumentException("arrays must hold " + width + "x" + height + " pixels");
         }
+        // Column positions on the cell grid, computed once: the per-pixel work is then one lerp.
+        double cw = (double) width / cellsX;
+        int[] ix = new int[width];
+        float[] fx = new float[width];
+        for (int x = 0; x < width; x++) {
+            double gx = Math.min(Math.max((x + 0.5) / cw - 0.5, 0), cellsX - 1);
+            ix[x] = Math.min((int) gx, cellsX - 1);
+            fx[x] = (float) (gx - ix[x]);
+        }
+        double ch = (double) height / cellsY;
+        float[][] rowCells = new float[Math.max(1, threads)][cellsX + 1];
         Parallel.forEach(height, threads, (y, worker) -> {
+            double gy = Math.min(Math.max((y + 0.5) / ch - 0.5, 0), cellsY - 1);
+            int iy = Math.min((int) gy, cellsY - 1);
+            int iy1 = Math.min(iy + 1, cellsY - 1);
+            double fy = gy - iy;
+            float[] rc = rowCells[worker];
+            for (int c = 0; c < cellsX; c++) {
+                rc[c] = (float) (level[iy * cellsX + c] * (1 - fy) + level[iy1 * cellsX + c] * fy);
+            }
+            rc[cellsX] = rc[cellsX - 1];
             int row = y * width;
             for (int x = 0; x < width; x++) {
-                double b = interpolate(level, x, y);
-                out[row + x] = pixels == null ? (float) b : (float) (pixels[row + x] - b);
+                int c = ix[x];
+                float b = rc[c] + fx[x] * (rc[c + 1] - rc[c]);
+                out[row + x] = pixels == null ? b : pixels[row + x] - b;
             }
         });
     }

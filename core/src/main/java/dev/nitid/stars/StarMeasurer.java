@@ -308,7 +308,7 @@ public final class StarMeasurer {
         Parallel.forEach(h, threads, (y, worker) -> {
             int row = y * w;
             for (int x = 0; x < w; x++) {
-                double acc = 0;
+                float acc = 0;
                 int a = Math.max(0, x - kr);
                 int b = Math.min(w - 1, x + kr);
                 for (int xx = a; xx <= b; xx++) {
@@ -317,20 +317,24 @@ public final class StarMeasurer {
                         acc += k[xx - x + kr] * v;
                     }
                 }
-                tmp[row + x] = (float) acc;
+                tmp[row + x] = acc;
             }
         });
+        float[][] rowAcc = new float[threads][w];
         Parallel.forEach(h, threads, (y, worker) -> {
             int a = Math.max(0, y - kr);
             int b = Math.min(h - 1, y + kr);
-            int row = y * w;
-            for (int x = 0; x < w; x++) {
-                double acc = 0;
-                for (int yy = a; yy <= b; yy++) {
-                    acc += k[yy - y + kr] * tmp[yy * w + x];
+            // Row by row so that memory is read in order (a column walk would miss the cache on wide frames).
+            float[] acc = rowAcc[worker];
+            java.util.Arrays.fill(acc, 0f);
+            for (int yy = a; yy <= b; yy++) {
+                float kv = k[yy - y + kr];
+                int src = yy * w;
+                for (int x = 0; x < w; x++) {
+                    acc[x] += kv * tmp[src + x];
                 }
-                filt[row + x] = (float) acc;
             }
+            System.arraycopy(acc, 0, filt, y * w, w);
         });
         double minNoise = Double.POSITIVE_INFINITY;
         for (int y = 0; y < h; y += Math.max(1, bg.meshSize() / 2)) {
