@@ -10,7 +10,7 @@ import java.util.Map;
  *
  * @param width          image width
  * @param height         image height
- * @param detections     local maxima above the threshold
+ * @param detections     every local maximum above the threshold, brightest first, with its fate
  * @param fitted         candidates that reached the profile fit (after cheap rejections, within maxStars)
  * @param stars          accepted stars
  * @param rejected       rejected detections by reason (every reason present, possibly 0)
@@ -32,7 +32,7 @@ import java.util.Map;
  * @param timings        wall-clock milliseconds per stage ("background", "detection", "fits", "psf", "total")
  * @param enoughStars    true if at least {@link MeasureSettings#minStars()} stars were accepted
  */
-public record StarMeasurement(int width, int height, int detections, int fitted, List<MeasuredStar> stars,
+public record StarMeasurement(int width, int height, List<Detection> detections, int fitted, List<MeasuredStar> stars,
                               Map<RejectReason, Integer> rejected, int skipped, double backgroundLevel,
                               double backgroundNoise, ProfileSummary gaussian, ProfileSummary moffat,
                               ProfileShape bestShape, List<RegionSummary> regions, int gridColumns, int gridRows,

@@ -57,7 +57,7 @@ public final class StarMeasurer {
     }
 
     /** A local maximum of the filtered image. */
-    private record Candidate(int x, int y, float filtered, int index) {
+    private record Candidate(int x, int y, float filtered, int index, double significance) {
     }
 
     /**
@@ -96,13 +96,20 @@ public final class StarMeasurer {
         int R = s.stampRadius();
         CandidateGrid grid = new CandidateGrid(cands, width, height, R + 1);
         List<Candidate> toFit = new ArrayList<>();
+        List<Integer> fitOrdinal = new ArrayList<>();
+        RejectReason[] fate = new RejectReason[cands.size()];
+        double[][] where = new double[cands.size()][];
         int skipped = 0;
-        for (Candidate c : cands) {
+        for (int ci = 0; ci < cands.size(); ci++) {
+            Candidate c = cands.get(ci);
+            where[ci] = new double[] {c.x(), c.y()};
             RejectReason why = cheapReject(c, pixels, resid, width, height, grid, s);
             if (why != null) {
                 rejected.merge(why, 1, Integer::sum);
+                fate[ci] = why;
             } else if (toFit.size() < s.maxStars()) {
                 toFit.add(c);
+                fitOrdinal.add(ci);
             } else {
                 skipped++;
             }
@@ -141,12 +148,20 @@ public final class StarMeasurer {
             faint[i] = g.amplitude() < s.minPeakSnr() * noise;
         });
         List<MeasuredStar> good = new ArrayList<>();
+        java.util.Map<MeasuredStar, Integer> ordinalOf = new java.util.IdentityHashMap<>();
         for (int i = 0; i < fits.length; i++) {
             MeasuredStar f = fits[i];
+            int ci = fitOrdinal.get(i);
             if (f == null) {
                 rejected.merge(RejectReason.FIT_FAILED, 1, Integer::sum);
-            } else if (faint[i]) {
+                fate[ci] = RejectReason.FIT_FAILED;
+                continue;
+            }
+            where[ci] = new double[] {f.x(), f.y()};
+            ordinalOf.put(f, ci);
+            if (faint[i]) {
                 rejected.merge(RejectReason.FAINT, 1, Integer::sum);
+                fate[ci] = RejectReason.FAINT;
             } else {
                 good.add(f);
             }
@@ -177,8 +192,9 @@ public final class StarMeasurer {
             kept.addAll(accepted);
             for (MeasuredStar m : good) {
                 if (!kept.contains(m)) {
-                    rejected.merge(m.gaussian().fwhm() < lo ? RejectReason.TOO_SHARP : RejectReason.EXTENDED, 1,
-                            Integer::sum);
+                    RejectReason why = m.gaussian().fwhm() < lo ? RejectReason.TOO_SHARP : RejectReason.EXTENDED;
+                    rejected.merge(why, 1, Integer::sum);
+                    fate[ordinalOf.get(m)] = why;
                 }
             }
         }
@@ -190,6 +206,15 @@ public final class StarMeasurer {
 
         int gc = s.gridColumns();
         int gr = s.gridRows();
+        boolean[] isAccepted = new boolean[cands.size()];
+        for (MeasuredStar m : accepted) {
+            isAccepted[ordinalOf.get(m)] = true;
+        }
+        List<Detection> detections = new ArrayList<>(cands.size());
+        for (int ci = 0; ci < cands.size(); ci++) {
+            detections.add(new Detection(where[ci][0], where[ci][1], cands.get(ci).significance(), isAccepted[ci],
+                    fate[ci]));
+        }
         List<MeasuredStar> stars = new ArrayList<>(accepted.size());
         for (MeasuredStar m : accepted) {
             StarProfile p = m.profile(best) != null ? m.profile(best) : m.gaussian();
@@ -236,7 +261,8 @@ public final class StarMeasurer {
         long t4 = System.nanoTime();
         timings.put("psf", (t4 - t3) / 1_000_000);
         timings.put("total", (t4 - t0) / 1_000_000);
-        return new StarMeasurement(width, height, cands.size(), toFit.size(), Collections.unmodifiableList(stars),
+        return new StarMeasurement(width, height, Collections.unmodifiableList(detections), toFit.size(),
+                Collections.unmodifiableList(stars),
                 Collections.unmodifiableMap(rejected), skipped, bg.globalLevel(), bg.globalNoise(), gs, ms, best,
                 Collections.unmodifiableList(regions), gc, gr, emp, model, mismatch, source, reason,
                 Collections.unmodifiableMap(timings), stars.size() >= s.minStars());
@@ -363,7 +389,7 @@ public final class StarMeasurer {
                 if (found == null) {
                     found = new ArrayList<>();
                 }
-                found.add(new Candidate(x, y, v, row + x));
+                found.add(new Candidate(x, y, v, row + x, v / (noiseGain * bg.noiseAt(x, y))));
             }
             rows[y] = found;
         });
