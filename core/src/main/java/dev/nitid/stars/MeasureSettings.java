@@ -30,6 +30,9 @@ package dev.nitid.stars;
  * @param minStars          fewest accepted stars for a usable measurement, ≥ 1
  * @param minPeakSnr        fitted peak over the local background σ below which a star is too faint to
  *                          measure its shape, ≥ 0
+ * @param referenceStars    the reference FWHM for the too-sharp and extended tests is the median over this many
+ *                          highest-S/N fitted stars: bright stars are rarely galaxies or knots, which crowd
+ *                          the faint end, ≥ 1
  * @param minModelMismatch  the empirical PSF is preferred only if it differs from the fitted model by more than
  *                          this many times its own noise (RMS over the core): otherwise the noise-free model
  *                          describes the stars as well, &gt; 0
@@ -40,7 +43,8 @@ public record MeasureSettings(BackgroundSettings background, double detectionFwh
                               int maxStars, double blendFraction, double maxSharpness, double minFwhm,
                               double sharpFactor, double extendedFactor, int gridColumns, int gridRows,
                               int psfOversampling, int psfStars, int minEmpiricalStars, double maxEmpiricalNoise,
-                              int minStars, double minPeakSnr, double minModelMismatch, int threads) {
+                              int minStars, double minPeakSnr, int referenceStars, double minModelMismatch,
+                              int threads) {
 
     /** Validates the settings. */
     public MeasureSettings {
@@ -78,6 +82,7 @@ public record MeasureSettings(BackgroundSettings background, double detectionFwh
         positive("maxEmpiricalNoise", maxEmpiricalNoise);
         atLeast("minStars", minStars, 1);
         positive("minModelMismatch", minModelMismatch);
+        atLeast("referenceStars", referenceStars, 1);
         if (!(minPeakSnr >= 0)) {
             throw new IllegalArgumentException("minPeakSnr is " + minPeakSnr + ": use a value ≥ 0, e.g. 3");
         }
@@ -99,7 +104,7 @@ public record MeasureSettings(BackgroundSettings background, double detectionFwh
     /**
      * Defaults (common practice, no source, unless stated): 3-px matched filter, 5σ threshold, 4-px
      * separation, 15×15 stamps, integrated sampling, 2000 stars, blend at 10 %, sharpness 0.9, FWHM ≥ 1 px,
-     * too sharp below 0.6× and extended above 1.5× the median FWHM, 3×3 grid, 4× oversampled PSF
+     * too sharp below 0.6× and extended above 1.3× the median FWHM of the 15 highest-S/N stars, 3×3 grid, 4× oversampled PSF
      * (Anderson &amp; King 2000) from up to 300 stars, preferred with ≥ 25 stars and noise ≤ 2 % of the peak,
      * at least 5 stars, peak ≥ 3σ to be measured, empirical PSF only if it differs from the model by > 2× its noise (without a difference the ratio is
      * χ²_N/N ≈ 1 ± √(2/N), about 1 ± 0.15 for the N ≈ 100 core pixels of a 3-px FWHM), all available cores.
@@ -108,80 +113,88 @@ public record MeasureSettings(BackgroundSettings background, double detectionFwh
      */
     public static MeasureSettings defaults() {
         return new MeasureSettings(BackgroundSettings.defaults(), 3.0, 5.0, 4, 7, Double.NaN,
-                PixelSampling.INTEGRATED, 2000, 0.1, 0.9, 1.0, 0.6, 1.5, 3, 3, 4, 300, 25, 0.02, 5, 3.0, 2.0,
+                PixelSampling.INTEGRATED, 2000, 0.1, 0.9, 1.0, 0.6, 1.3, 3, 3, 4, 300, 25, 0.02, 5, 3.0, 15, 2.0,
                 Runtime.getRuntime().availableProcessors());
     }
 
     /** @return these settings with another saturation level (NaN = unknown) */
     public MeasureSettings withSaturation(double level) {
-        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, level, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, minModelMismatch, threads);
+        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, level, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, referenceStars, minModelMismatch, threads);
     }
 
     /** @return these settings with another thread count */
     public MeasureSettings withThreads(int n) {
-        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, minModelMismatch, n);
+        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, referenceStars, minModelMismatch, n);
     }
 
     /** @return these settings with another detection threshold (in σ of the filtered image) */
     public MeasureSettings withThresholdSigma(double k) {
-        return new MeasureSettings(background, detectionFwhm, k, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, minModelMismatch, threads);
+        return new MeasureSettings(background, detectionFwhm, k, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, referenceStars, minModelMismatch, threads);
     }
 
     /** @return these settings with another matched-filter FWHM */
     public MeasureSettings withDetectionFwhm(double fwhm) {
-        return new MeasureSettings(background, fwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, minModelMismatch, threads);
+        return new MeasureSettings(background, fwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, referenceStars, minModelMismatch, threads);
     }
 
     /** @return these settings with another stamp radius (stamps and PSF are (2r+1)²) */
     public MeasureSettings withStampRadius(int r) {
-        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, r, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, minModelMismatch, threads);
+        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, r, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, referenceStars, minModelMismatch, threads);
     }
 
     /** @return these settings with another pixel sampling */
     public MeasureSettings withSampling(PixelSampling s) {
-        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, s, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, minModelMismatch, threads);
+        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, s, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, referenceStars, minModelMismatch, threads);
     }
 
     /** @return these settings with another background mesh */
     public MeasureSettings withBackground(BackgroundSettings b) {
-        return new MeasureSettings(b, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, minModelMismatch, threads);
+        return new MeasureSettings(b, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, referenceStars, minModelMismatch, threads);
     }
 
     /** @return these settings with another limit on fitted stars */
     public MeasureSettings withMaxStars(int n) {
-        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, n, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, minModelMismatch, threads);
+        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, n, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, referenceStars, minModelMismatch, threads);
     }
 
     /** @return these settings with another minimum number of accepted stars */
     public MeasureSettings withMinStars(int n) {
-        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, n, minPeakSnr, minModelMismatch, threads);
+        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, n, minPeakSnr, referenceStars, minModelMismatch, threads);
     }
 
     /** @return these settings with another faintest measurable peak */
     public MeasureSettings withMinPeakSnr(double snr) {
-        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, snr, minModelMismatch, threads);
+        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, snr, referenceStars, minModelMismatch, threads);
     }
 
     /** @return these settings with another empirical-PSF oversampling */
     public MeasureSettings withPsfOversampling(int k) {
-        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, k, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, minModelMismatch, threads);
+        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, k, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, referenceStars, minModelMismatch, threads);
     }
 
     /** @return these settings with another minimum separation of detections */
     public MeasureSettings withMinSeparation(int px) {
-        return new MeasureSettings(background, detectionFwhm, thresholdSigma, px, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, minModelMismatch, threads);
+        return new MeasureSettings(background, detectionFwhm, thresholdSigma, px, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns, gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, referenceStars, minModelMismatch, threads);
+    }
+
+    /** @return these settings with another extended-object factor */
+    public MeasureSettings withExtendedFactor(double f) {
+        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation,
+                sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, f, gridColumns,
+                gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr,
+                referenceStars, minModelMismatch, threads);
     }
 
     /** @return these settings with another field grid */
     public MeasureSettings withGrid(int columns, int rows) {
-        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, columns, rows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, minModelMismatch, threads);
+        return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation, sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, columns, rows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, referenceStars, minModelMismatch, threads);
     }
 
     /** @return these settings with another empirical-versus-model mismatch threshold */
     public MeasureSettings withMinModelMismatch(double k) {
         return new MeasureSettings(background, detectionFwhm, thresholdSigma, minSeparation, stampRadius, saturation,
                 sampling, maxStars, blendFraction, maxSharpness, minFwhm, sharpFactor, extendedFactor, gridColumns,
-                gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, k,
+                gridRows, psfOversampling, psfStars, minEmpiricalStars, maxEmpiricalNoise, minStars, minPeakSnr, referenceStars, k,
                 threads);
     }
 }

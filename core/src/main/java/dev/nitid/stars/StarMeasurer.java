@@ -169,12 +169,13 @@ public final class StarMeasurer {
         long t3 = System.nanoTime();
         timings.put("fits", (t3 - t2) / 1_000_000);
 
-        // Shape rejection, with the median FWHM recomputed once on the survivors.
+        // Shape rejection against a reference FWHM: the median over the highest-S/N fitted stars (galaxies and
+        // knots crowd the faint end), recomputed once on the survivors.
         List<MeasuredStar> accepted = good;
+        double ref = referenceFwhm(good, s.referenceStars());
         for (int pass = 0; pass < 2 && !accepted.isEmpty(); pass++) {
-            double med = Select.median(accepted.stream().mapToDouble(m -> m.gaussian().fwhm()).toArray());
-            double lo = Math.max(s.minFwhm(), s.sharpFactor() * med);
-            double hi = s.extendedFactor() * med;
+            double lo = Math.max(s.minFwhm(), s.sharpFactor() * ref);
+            double hi = s.extendedFactor() * ref;
             List<MeasuredStar> keep = new ArrayList<>();
             for (MeasuredStar m : good) {
                 double f = m.gaussian().fwhm();
@@ -183,11 +184,12 @@ public final class StarMeasurer {
                 }
             }
             accepted = keep;
+            if (!keep.isEmpty()) {
+                ref = referenceFwhm(keep, s.referenceStars());
+            }
         }
         if (!good.isEmpty()) {
-            double med = accepted.isEmpty() ? Double.NaN
-                    : Select.median(accepted.stream().mapToDouble(m -> m.gaussian().fwhm()).toArray());
-            double lo = Math.max(s.minFwhm(), s.sharpFactor() * med);
+            double lo = Math.max(s.minFwhm(), s.sharpFactor() * ref);
             java.util.Set<MeasuredStar> kept = Collections.newSetFromMap(new java.util.IdentityHashMap<>());
             kept.addAll(accepted);
             for (MeasuredStar m : good) {
@@ -266,6 +268,14 @@ public final class StarMeasurer {
                 Collections.unmodifiableMap(rejected), skipped, bg.globalLevel(), bg.globalNoise(), gs, ms, best,
                 Collections.unmodifiableList(regions), gc, gr, emp, model, mismatch, source, reason,
                 Collections.unmodifiableMap(timings), stars.size() >= s.minStars());
+    }
+
+    /** Median Gaussian FWHM of the {@code count} highest-S/N stars (ties keep list order). */
+    private static double referenceFwhm(List<MeasuredStar> stars, int count) {
+        List<MeasuredStar> bySnr = new ArrayList<>(stars);
+        bySnr.sort((a, b) -> Double.compare(b.snr(), a.snr()));
+        return Select.median(bySnr.subList(0, Math.min(count, bySnr.size())).stream()
+                .mapToDouble(m -> m.gaussian().fwhm()).toArray());
     }
 
     /**
