@@ -1,0 +1,54 @@
+package dev.nitid.fits;
+
+import java.util.OptionalDouble;
+
+/**
+ * World-coordinate facts read from a header, following Greisen &amp; Calabretta 2002, "Representations of
+ * world coordinates in FITS", A&amp;A 395, 1061 (Paper I), §2.1: the linear transformation is either the
+ * {@code CDi_j} matrix, or {@code CDELTi} times the {@code PCi_j} matrix (unit matrix when absent).
+ * Celestial axes are in degrees unless CUNITi says otherwise.
+ */
+public final class Wcs {
+    private static final double ARCSEC_PER_DEG = 3600.0;
+
+    private Wcs() {
+    }
+
+    /**
+     * The mean pixel scale {@code sqrt(|det M|)} in arcseconds per pixel, where M is the 2×2 linear
+     * transformation of axes 1 and 2 in degrees (Greisen &amp; Calabretta 2002, eq. 1–3; the square root of
+     * the determinant is the geometric mean of the two axis scales, common practice).
+     *
+     * @param h the header (input, not modified)
+     * @return the scale, or empty if the header has no usable CD or CDELT values, or axes not in degrees
+     */
+    public static OptionalDouble pixelScaleArcsec(FitsHeader h) {
+        for (String axis : new String[] {"CUNIT1", "CUNIT2"}) {
+            String u = h.getString(axis).orElse("deg").trim();
+            if (!u.isEmpty() && !u.equalsIgnoreCase("deg")) {
+                return OptionalDouble.empty();
+            }
+        }
+        double[] m = new double[4];
+        if (h.getDouble("CD1_1").isPresent() || h.getDouble("CD2_2").isPresent()) {
+            m[0] = h.getDouble("CD1_1").orElse(0);
+            m[1] = h.getDouble("CD1_2").orElse(0);
+            m[2] = h.getDouble("CD2_1").orElse(0);
+            m[3] = h.getDouble("CD2_2").orElse(0);
+        } else if (h.getDouble("CDELT1").isPresent() && h.getDouble("CDELT2").isPresent()) {
+            double c1 = h.getDouble("CDELT1").getAsDouble();
+            double c2 = h.getDouble("CDELT2").getAsDouble();
+            m[0] = c1 * h.getDouble("PC1_1").orElse(1);
+            m[1] = c1 * h.getDouble("PC1_2").orElse(0);
+            m[2] = c2 * h.getDouble("PC2_1").orElse(0);
+            m[3] = c2 * h.getDouble("PC2_2").orElse(1);
+        } else {
+            return OptionalDouble.empty();
+        }
+        double det = Math.abs(m[0] * m[3] - m[1] * m[2]);
+        if (!(det > 0) || !Double.isFinite(det)) {
+            return OptionalDouble.empty();
+        }
+        return OptionalDouble.of(Math.sqrt(det) * ARCSEC_PER_DEG);
+    }
+}
