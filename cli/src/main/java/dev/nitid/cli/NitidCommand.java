@@ -26,6 +26,7 @@ import picocli.CommandLine.Command;
             CommandLine.HelpCommand.class,
             InfoCommand.class,
             PsfCommand.class,
+            SimulateCommand.class,
             AutoComplete.GenerateCompletion.class,
         },
         footerHeading = "%nExit codes:%n",
