@@ -76,10 +76,12 @@ public final class RlPlan {
     private final int padX;
     private final int padY;
     private final Convolver conv;
+    /** The estimate on the grid: own storage on an extended grid, else the caller's output array. */
     private float[] o;
+    private final float[] ownO;
     private final float[] tmp;
     private float[] xPrev;
-    private final float[] yBuf;
+    private final float[] accBuf;
     private final float[] gBuf;
     /** Observed data on the grid, NaN where the weight is 0; null when the observed plane is used directly. */
     private final float[] dataGrid;
@@ -112,11 +114,12 @@ public final class RlPlan {
         };
         this.conv = Convolver.create(gw, gh, psf, new ConvolutionSettings(b, threads));
         int n = gw * gh;
-        this.o = new float[n];
+        // buffers: tmp always; the estimate lives in the caller's output unless the grid is larger; the
+        // accelerated form adds x_{k−1} and g_{k−1} (its prediction y is recomputed on the fly)
+        this.ownO = ext ? new float[n] : null;
         this.tmp = new float[n];
         boolean acc = method == Method.ACCELERATED_RL;
-        this.xPrev = acc ? new float[n] : null;
-        this.yBuf = acc ? new float[n] : null;
+        this.accBuf = acc ? new float[n] : null;
         this.gBuf = acc ? new float[n] : null;
         this.dataGrid = ext ? new float[n] : null;
         this.invS = ext ? new float[n] : null;
@@ -163,19 +166,17 @@ public final class RlPlan {
                        Params p, Conventions conv0, Stopping stop, int plane, ProgressListener listener,
                        BooleanSupplier cancelled) {
         final int n = gw * gh;
-        final boolean needCopy = dataGrid != null || valid != null;
+        if (out.length != width * height || observed.length != width * height) {
+            throw new IllegalArgumentException("observed has " + observed.length + " and out " + out.length
+                    + " pixels but this plan is for " + width + "x" + height + ": build a plan for that size");
+        }
+        o = ownO != null ? ownO : out;
+        xPrev = accBuf;
         final float[] d;
-        float[] scratchData = null;
+        final boolean[] w;
         if (dataGrid != null) {
             d = dataGrid;
-        } else if (valid != null) {
-            // masked pixels are marked NaN in a private copy; tmp cannot hold it (it is the work buffer)
-            scratchData = new float[n];
-            d = scratchData;
-        } else {
-            d = observed;
-        }
-        if (needCopy) {
+            w = null;
             Arrays.fill(d, Float.NaN);
             for (int y = 0; y < height; y++) {
                 for (int x = 0; x < width; x++) {
@@ -185,6 +186,10 @@ public final class RlPlan {
                     d[(y + padY) * gw + x + padX] = ok ? v : Float.NaN;
                 }
             }
+        } else {
+            // the observed plane is read in place; masked pixels are found through `valid` and isFinite
+            d = observed;
+            w = valid;
         }
         // sensitivity s = Kᵀ w
         float[] inv = invS;
@@ -192,7 +197,7 @@ public final class RlPlan {
             boolean anyMasked = dataGrid != null;
             if (!anyMasked) {
                 for (int i = 0; i < n; i++) {
-                    if (Float.isNaN(d[i])) {
+                    if (masked(d, w, i)) {
                         anyMasked = true;
                         break;
                     }
@@ -203,7 +208,7 @@ public final class RlPlan {
                     inv = new float[n];
                 }
                 for (int i = 0; i < n; i++) {
-                    tmp[i] = Float.isNaN(d[i]) ? 0f : 1f;
+                    tmp[i] = masked(d, w, i) ? 0f : 1f;
                 }
                 conv.correlate(tmp, inv);
                 for (int i = 0; i < n; i++) {
@@ -221,7 +226,7 @@ public final class RlPlan {
             double sum = 0;
             long cnt = 0;
             for (int i = 0; i < n; i++) {
-                if (!Float.isNaN(d[i])) {
+                if (!masked(d, w, i)) {
                     sum += d[i];
                     cnt++;
                 }
@@ -238,12 +243,13 @@ public final class RlPlan {
             Arrays.fill(gBuf, 0f);
         }
 
+
         final double c = p.offset();
         final double g = p.gain();
         final double guard = conv0.guard();
         long nValid = 0;
         for (int i = 0; i < n; i++) {
-            if (!Float.isNaN(d[i])) {
+            if (!masked(d, w, i)) {
                 nValid++;
             }
         }
@@ -265,65 +271,63 @@ public final class RlPlan {
                 reason = StopReason.CANCELLED;
                 break;
             }
-            float[] x = o;
-            float[] est = x;
+            final float[] x = o;
+            float a = 0f;
             if (method == Method.ACCELERATED_RL) {
                 double alpha = 0;
                 if (k >= 2 && gDotPrev > 0) {
                     alpha = Math.max(0, Math.min(alphaNum / gDotPrev, ACCEL_MAX));
                 }
-                float a = (float) alpha;
+                a = (float) alpha;
+                // tmp = y = max(0, x + α (x − x_{k−1}))
                 for (int i = 0; i < n; i++) {
-                    float yv = x[i] + a * (x[i] - xPrev[i]);
-                    yBuf[i] = yv > 0 ? yv : 0f;
+                    tmp[i] = predict(x[i], xPrev[i], a);
                 }
-                est = yBuf;
+                conv.convolve(tmp, tmp);
+            } else {
+                conv.convolve(x, tmp);
             }
             // tmp = K est, then the ratio, then Kᵀ ratio
-            conv.convolve(est, tmp);
-            ratio(d, tmp, c, g, guard, p, stats);
+            ratio(d, w, tmp, c, g, guard, p, stats);
             double logL = stats[0];
             double chi2 = stats[1] / Math.max(1, nValid);
             conv.correlate(tmp, tmp);
             if (method == Method.TV_RL && p.tvWeight() > 0) {
-                tvDenominator(est, tmp, inv, (float) p.tvWeight(), (float) p.tvEpsilon());
+                tvDenominator(x, tmp, inv, (float) p.tvWeight(), (float) p.tvEpsilon());
             }
             double change;
+            double diff = 0;
+            double tot = 0;
             if (method == Method.ACCELERATED_RL) {
-                // x_{k+1} = est · Kᵀ(...) / s into xPrev (x_{k−1} is no longer needed); g_k = x_{k+1} − y
+                // x_{k+1} = y · Kᵀ(...) / s goes into xPrev's storage (x_{k−1} is read first); g_k = x_{k+1} − y
                 double num = 0;
                 double den = 0;
-                double diff = 0;
-                double tot = 0;
                 for (int i = 0; i < n; i++) {
-                    float yv = est[i];
+                    float xv = x[i];
+                    float yv = predict(xv, xPrev[i], a);
                     float nv = update(yv, tmp[i], inv, i);
                     float gv = nv - yv;
                     num += (double) gv * gBuf[i];
                     den += (double) gBuf[i] * gBuf[i];
                     gBuf[i] = gv;
-                    diff += Math.abs(nv - x[i]);
+                    diff += Math.abs(nv - xv);
                     tot += Math.abs(nv);
                     xPrev[i] = nv;
                 }
                 alphaNum = num;
                 gDotPrev = den;
-                // swap roles: o now holds x_{k+1}, xPrev holds x_k
                 float[] swap = o;
                 o = xPrev;
                 xPrev = swap;
-                change = tot > 0 ? diff / tot : 0;
             } else {
-                double diff = 0;
-                double tot = 0;
                 for (int i = 0; i < n; i++) {
                     float nv = update(x[i], tmp[i], inv, i);
                     diff += Math.abs(nv - x[i]);
                     tot += Math.abs(nv);
                     x[i] = nv;
                 }
-                change = tot > 0 ? diff / tot : 0;
             }
+            change = tot > 0 ? diff / tot : 0;
             if (floor != null) {
                 floor.apply(o, lifted);
             }
@@ -354,14 +358,27 @@ public final class RlPlan {
             floor.takeBack(o, lifted);
         }
         long nanos = System.nanoTime() - t0;
-        for (int y = 0; y < height; y++) {
-            System.arraycopy(o, (y + padY) * gw + padX, out, y * width, width);
+        if (o != out) {
+            for (int y = 0; y < height; y++) {
+                System.arraycopy(o, (y + padY) * gw + padX, out, y * width, width);
+            }
         }
+        o = null;
+        xPrev = null;
         return new Outcome(k, reason, history, nanos);
     }
 
     /** Largest extrapolation factor of the accelerated form (Biggs &amp; Andrews clip α below 1). */
     public static final double ACCEL_MAX = 0.999;
+
+    private static float predict(float x, float prev, float a) {
+        float y = x + a * (x - prev);
+        return y > 0 ? y : 0f;
+    }
+
+    private static boolean masked(float[] d, boolean[] w, int i) {
+        return !Float.isFinite(d[i]) || (w != null && !w[i]);
+    }
 
     private static float update(float est, float back, float[] inv, int i) {
         if (inv == null) {
@@ -374,7 +391,8 @@ public final class RlPlan {
     /**
      * Replaces {@code tmp} (holding {@code K o}) by the ratio; stats[0] = log-likelihood, stats[1] = χ² sum.
      */
-    private static void ratio(float[] d, float[] tmp, double c, double g, double guard, Params p, double[] stats) {
+    private static void ratio(float[] d, boolean[] w, float[] tmp, double c, double g, double guard, Params p,
+                              double[] stats) {
         double logL = 0;
         double chi2 = 0;
         final boolean damped = p.method() == Method.DAMPED_RL;
@@ -382,7 +400,7 @@ public final class RlPlan {
         final double minVar = 1.0 / g;
         for (int i = 0; i < d.length; i++) {
             float dv = d[i];
-            if (Float.isNaN(dv)) {
+            if (!Float.isFinite(dv) || (w != null && !w[i])) {
                 tmp[i] = 0f;
                 continue;
             }
