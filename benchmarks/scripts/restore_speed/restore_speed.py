@@ -9,7 +9,9 @@
 Same frame (flat sky 100-110 plus 200 bright points) and Gaussian PSF (sigma = side/8) for all.
 Run from the repository root after `mvn -o -q -pl benchmarks -am package -DskipTests`:
 
-  python3 benchmarks/scripts/restore_speed/restore_speed.py --sizes 2048 4096 --psfs 31 65
+  /usr/bin/python3 benchmarks/scripts/restore_speed/restore_speed.py --sizes 2048 4096 --psfs 31 65
+
+(/usr/bin/python3 is the Debian interpreter that sees the python3-* packages.)
 
 Versions used for the recorded figures: Debian 12 python3-numpy 1.24.2, python3-scipy 1.10.1,
 python3-skimage 0.19.3; see notes/restore.md.

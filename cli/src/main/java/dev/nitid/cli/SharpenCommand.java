@@ -162,6 +162,8 @@ public final class SharpenCommand implements Callable<Integer> {
         if (iterations != null) {
             s = s.withIterations(iterations);
         }
+        // the likelihood costs a logarithm per pixel; only --verbose shows it
+        s = s.withStopping(s.stopping().withRecordLikelihood(common.verbose()));
         s = s.withEdges(switch (edges) {
             case reflect -> EdgeHandling.REFLECT;
             case extended -> EdgeHandling.EXTENDED_DOMAIN;
@@ -235,6 +237,7 @@ public final class SharpenCommand implements Callable<Integer> {
             case FIXED_COUNT_REACHED -> "as requested";
             case CHI_SQUARE_REACHED -> "residual reached the noise";
             case LIKELIHOOD_CONVERGED -> "likelihood stopped improving";
+            case STALLED -> "estimate stopped changing";
             case ITERATION_CAP -> "iteration cap reached";
             case CANCELLED -> "cancelled";
             case SINGLE_PASS -> "single pass";

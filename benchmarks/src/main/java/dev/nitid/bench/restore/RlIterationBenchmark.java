@@ -92,7 +92,7 @@ public class RlIterationBenchmark {
     @OperationsPerInvocation(ITERATIONS)
     public float[] iterations() {
         plan.run(data, null, null, false, out, params, RlPlan.Conventions.standard(1e-3),
-                Stopping.fixed(ITERATIONS), 0, ProgressListener.NONE, () -> false);
+                Stopping.fixed(ITERATIONS).withRecordLikelihood(false), 0, ProgressListener.NONE, () -> false);
         return out;
     }
 }

@@ -247,6 +247,7 @@ public final class RlPlan {
         final double c = p.offset();
         final double g = p.gain();
         final double guard = conv0.guard();
+        final boolean logLik = stop.needsLikelihood();
         long nValid = 0;
         for (int i = 0; i < n; i++) {
             if (!masked(d, w, i)) {
@@ -288,7 +289,7 @@ public final class RlPlan {
                 conv.convolve(x, tmp);
             }
             // tmp = K est, then the ratio, then Kᵀ ratio
-            ratio(d, w, tmp, c, g, guard, p, stats);
+            ratio(d, w, tmp, c, g, guard, p, logLik, stats);
             double logL = stats[0];
             double chi2 = stats[1] / Math.max(1, nValid);
             conv.correlate(tmp, tmp);
@@ -342,13 +343,15 @@ public final class RlPlan {
                 case CHI_SQUARE -> {
                     if (chi2 <= stop.threshold()) {
                         reason = StopReason.CHI_SQUARE_REACHED;
-                    } else if (gainPerPixel < stop.minGain()) {
-                        reason = StopReason.LIKELIHOOD_CONVERGED;
+                    } else if (change < stop.minChange()) {
+                        reason = StopReason.STALLED;
                     }
                 }
                 case LIKELIHOOD_GAIN -> {
                     if (gainPerPixel < stop.threshold()) {
                         reason = StopReason.LIKELIHOOD_CONVERGED;
+                    } else if (change < stop.minChange()) {
+                        reason = StopReason.STALLED;
                     }
                 }
             }
@@ -392,7 +395,7 @@ public final class RlPlan {
      * Replaces {@code tmp} (holding {@code K o}) by the ratio; stats[0] = log-likelihood, stats[1] = χ² sum.
      */
     private static void ratio(float[] d, boolean[] w, float[] tmp, double c, double g, double guard, Params p,
-                              double[] stats) {
+                              boolean logLik, double[] stats) {
         double logL = 0;
         double chi2 = 0;
         final boolean damped = p.method() == Method.DAMPED_RL;
@@ -408,10 +411,8 @@ public final class RlPlan {
             double data = Math.max(0, (double) dv + c);
             double r = dv - tmp[i];
             chi2 += r * r * g / Math.max(model, minVar);
-            if (model > 0) {
-                logL += data * Math.log(model) - model;
-            } else {
-                logL += -model;
+            if (logLik) {
+                logL += model > 0 ? data * Math.log(model) - model : -model;
             }
             double den = model + guard;
             if (!damped) {
@@ -430,7 +431,7 @@ public final class RlPlan {
                 tmp[i] = (float) (1.0 + un * (DAMPING_POWER - (DAMPING_POWER - 1) * u) * (dd - bb) / bb);
             }
         }
-        stats[0] = g * logL;
+        stats[0] = logLik ? g * logL : Double.NaN;
         stats[1] = chi2;
     }
 
