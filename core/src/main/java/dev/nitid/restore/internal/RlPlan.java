@@ -87,6 +87,7 @@ public final class RlPlan {
     private final float[] dataGrid;
     private final float[] invS;
     private final Method method;
+    private final int threads;
 
     /**
      * Plans a restoration.
@@ -102,6 +103,7 @@ public final class RlPlan {
         this.width = width;
         this.height = height;
         this.method = method;
+        this.threads = threads;
         boolean ext = edges == EdgeHandling.EXTENDED_DOMAIN;
         this.padX = ext ? psf.width() / 2 : 0;
         this.padY = ext ? psf.height() / 2 : 0;
@@ -261,97 +263,125 @@ public final class RlPlan {
         double alphaNum = 0;
         int k = 0;
         StopReason reason = null;
-        double[] stats = new double[3];
         double[] lifted = floor == null ? null : new double[Math.max(1, floor.stars())];
-        while (reason == null) {
-            if (k >= stop.maxIterations()) {
-                reason = stop.rule() == StopRule.FIXED_COUNT ? StopReason.FIXED_COUNT_REACHED : StopReason.ITERATION_CAP;
-                break;
-            }
-            if (cancelled.getAsBoolean()) {
-                reason = StopReason.CANCELLED;
-                break;
-            }
-            final float[] x = o;
-            float a = 0f;
-            if (method == Method.ACCELERATED_RL) {
-                double alpha = 0;
-                if (k >= 2 && gDotPrev > 0) {
-                    alpha = Math.max(0, Math.min(alphaNum / gDotPrev, ACCEL_MAX));
+        try (BlockPasses passes = new BlockPasses(gw, gh, threads)) {
+            final int nb = passes.blocks();
+            final double[] s1 = new double[nb];
+            final double[] s2 = new double[nb];
+            final double[] s3 = new double[nb];
+            final double[] s4 = new double[nb];
+            final float[] t = tmp;
+            final float[] sInv = inv;
+            while (reason == null) {
+                if (k >= stop.maxIterations()) {
+                    reason = stop.rule() == StopRule.FIXED_COUNT ? StopReason.FIXED_COUNT_REACHED : StopReason.ITERATION_CAP;
+                    break;
                 }
-                a = (float) alpha;
-                // tmp = y = max(0, x + α (x − x_{k−1}))
-                for (int i = 0; i < n; i++) {
-                    tmp[i] = predict(x[i], xPrev[i], a);
+                if (cancelled.getAsBoolean()) {
+                    reason = StopReason.CANCELLED;
+                    break;
                 }
-                conv.convolve(tmp, tmp);
-            } else {
-                conv.convolve(x, tmp);
-            }
-            // tmp = K est, then the ratio, then Kᵀ ratio
-            ratio(d, w, tmp, c, g, guard, p, logLik, stats);
-            double logL = stats[0];
-            double chi2 = stats[1] / Math.max(1, nValid);
-            conv.correlate(tmp, tmp);
-            if (method == Method.TV_RL && p.tvWeight() > 0) {
-                tvDenominator(x, tmp, inv, (float) p.tvWeight(), (float) p.tvEpsilon());
-            }
-            double change;
-            double diff = 0;
-            double tot = 0;
-            if (method == Method.ACCELERATED_RL) {
-                // x_{k+1} = y · Kᵀ(...) / s goes into xPrev's storage (x_{k−1} is read first); g_k = x_{k+1} − y
-                double num = 0;
-                double den = 0;
-                for (int i = 0; i < n; i++) {
-                    float xv = x[i];
-                    float yv = predict(xv, xPrev[i], a);
-                    float nv = update(yv, tmp[i], inv, i);
-                    float gv = nv - yv;
-                    num += (double) gv * gBuf[i];
-                    den += (double) gBuf[i] * gBuf[i];
-                    gBuf[i] = gv;
-                    diff += Math.abs(nv - xv);
-                    tot += Math.abs(nv);
-                    xPrev[i] = nv;
-                }
-                alphaNum = num;
-                gDotPrev = den;
-                float[] swap = o;
-                o = xPrev;
-                xPrev = swap;
-            } else {
-                for (int i = 0; i < n; i++) {
-                    float nv = update(x[i], tmp[i], inv, i);
-                    diff += Math.abs(nv - x[i]);
-                    tot += Math.abs(nv);
-                    x[i] = nv;
-                }
-            }
-            change = tot > 0 ? diff / tot : 0;
-            if (floor != null) {
-                floor.apply(o, lifted);
-            }
-            k++;
-            IterationRecord rec = new IterationRecord(plane, k, logL, chi2, change, System.nanoTime() - t0);
-            history.add(rec);
-            listener.onIteration(rec);
-            double gainPerPixel = Double.isNaN(prevL) ? Double.POSITIVE_INFINITY : (logL - prevL) / Math.max(1, nValid);
-            prevL = logL;
-            switch (stop.rule()) {
-                case FIXED_COUNT -> { }
-                case CHI_SQUARE -> {
-                    if (chi2 <= stop.threshold()) {
-                        reason = StopReason.CHI_SQUARE_REACHED;
-                    } else if (change < stop.minChange()) {
-                        reason = StopReason.STALLED;
+                final float[] x = o;
+                final float[] xp = xPrev;
+                final float a;
+                if (method == Method.ACCELERATED_RL) {
+                    double alpha = 0;
+                    if (k >= 2 && gDotPrev > 0) {
+                        alpha = Math.max(0, Math.min(alphaNum / gDotPrev, ACCEL_MAX));
                     }
+                    a = (float) alpha;
+                    // tmp = y = max(0, x + α (x − x_{k−1}))
+                    passes.run((blk, from, to) -> {
+                        for (int i = from; i < to; i++) {
+                            t[i] = predict(x[i], xp[i], a);
+                        }
+                    });
+                    conv.convolve(t, t);
+                } else {
+                    a = 0f;
+                    conv.convolve(x, t);
                 }
-                case LIKELIHOOD_GAIN -> {
-                    if (gainPerPixel < stop.threshold()) {
-                        reason = StopReason.LIKELIHOOD_CONVERGED;
-                    } else if (change < stop.minChange()) {
-                        reason = StopReason.STALLED;
+                // tmp = K est, then the ratio, then Kᵀ ratio
+                passes.run((blk, from, to) -> ratio(d, w, t, c, g, guard, p, logLik, from, to, s1, s2, blk));
+                double logL = logLik ? g * BlockPasses.sum(s1) : Double.NaN;
+                double chi2 = BlockPasses.sum(s2) / Math.max(1, nValid);
+                conv.correlate(t, t);
+                if (method == Method.TV_RL && p.tvWeight() > 0) {
+                    final float lam = (float) p.tvWeight();
+                    final float eps = (float) p.tvEpsilon();
+                    passes.run((blk, from, to) -> tvDenominator(x, t, sInv, lam, eps, from / gw, to / gw));
+                }
+                double change;
+                if (method == Method.ACCELERATED_RL) {
+                    // x_{k+1} = y · Kᵀ(...) / s goes into xPrev's storage (x_{k−1} is read first); g_k = x_{k+1} − y
+                    final float[] gb = gBuf;
+                    passes.run((blk, from, to) -> {
+                        double num = 0;
+                        double den = 0;
+                        double diff = 0;
+                        double tot = 0;
+                        for (int i = from; i < to; i++) {
+                            float xv = x[i];
+                            float yv = predict(xv, xp[i], a);
+                            float nv = update(yv, t[i], sInv, i);
+                            float gv = nv - yv;
+                            num += (double) gv * gb[i];
+                            den += (double) gb[i] * gb[i];
+                            gb[i] = gv;
+                            diff += Math.abs(nv - xv);
+                            tot += Math.abs(nv);
+                            xp[i] = nv;
+                        }
+                        s1[blk] = num;
+                        s2[blk] = den;
+                        s3[blk] = diff;
+                        s4[blk] = tot;
+                    });
+                    alphaNum = BlockPasses.sum(s1);
+                    gDotPrev = BlockPasses.sum(s2);
+                    float[] swap = o;
+                    o = xPrev;
+                    xPrev = swap;
+                } else {
+                    passes.run((blk, from, to) -> {
+                        double diff = 0;
+                        double tot = 0;
+                        for (int i = from; i < to; i++) {
+                            float nv = update(x[i], t[i], sInv, i);
+                            diff += Math.abs(nv - x[i]);
+                            tot += Math.abs(nv);
+                            x[i] = nv;
+                        }
+                        s3[blk] = diff;
+                        s4[blk] = tot;
+                    });
+                }
+                double tot = BlockPasses.sum(s4);
+                change = tot > 0 ? BlockPasses.sum(s3) / tot : 0;
+                if (floor != null) {
+                    floor.apply(o, lifted);
+                }
+                k++;
+                IterationRecord rec = new IterationRecord(plane, k, logL, chi2, change, System.nanoTime() - t0);
+                history.add(rec);
+                listener.onIteration(rec);
+                double gainPerPixel = Double.isNaN(prevL) ? Double.POSITIVE_INFINITY : (logL - prevL) / Math.max(1, nValid);
+                prevL = logL;
+                switch (stop.rule()) {
+                    case FIXED_COUNT -> { }
+                    case CHI_SQUARE -> {
+                        if (chi2 <= stop.threshold()) {
+                            reason = StopReason.CHI_SQUARE_REACHED;
+                        } else if (change < stop.minChange()) {
+                            reason = StopReason.STALLED;
+                        }
+                    }
+                    case LIKELIHOOD_GAIN -> {
+                        if (gainPerPixel < stop.threshold()) {
+                            reason = StopReason.LIKELIHOOD_CONVERGED;
+                        } else if (change < stop.minChange()) {
+                            reason = StopReason.STALLED;
+                        }
                     }
                 }
             }
@@ -392,16 +422,17 @@ public final class RlPlan {
     }
 
     /**
-     * Replaces {@code tmp} (holding {@code K o}) by the ratio; stats[0] = log-likelihood, stats[1] = χ² sum.
+     * Replaces {@code tmp} (holding {@code K o}) by the ratio on {@code [from, to)}; stores the block's
+     * log-likelihood (in data units, before the gain) and χ² sums.
      */
     private static void ratio(float[] d, boolean[] w, float[] tmp, double c, double g, double guard, Params p,
-                              boolean logLik, double[] stats) {
+                              boolean logLik, int from, int to, double[] sumL, double[] sumChi, int blk) {
         double logL = 0;
         double chi2 = 0;
         final boolean damped = p.method() == Method.DAMPED_RL;
         final double t2 = p.dampingSigma() * p.dampingSigma();
         final double minVar = 1.0 / g;
-        for (int i = 0; i < d.length; i++) {
+        for (int i = from; i < to; i++) {
             float dv = d[i];
             if (!Float.isFinite(dv) || (w != null && !w[i])) {
                 tmp[i] = 0f;
@@ -431,15 +462,15 @@ public final class RlPlan {
                 tmp[i] = (float) (1.0 + un * (DAMPING_POWER - (DAMPING_POWER - 1) * u) * (dd - bb) / bb);
             }
         }
-        stats[0] = logLik ? g * logL : Double.NaN;
-        stats[1] = chi2;
+        sumL[blk] = logL;
+        sumChi[blk] = chi2;
     }
 
     /** tmp ← tmp / max(s − λ div(∇o/|∇o|), TV_MIN_DENOMINATOR·s), scaled so that the update divides by s. */
-    private void tvDenominator(float[] est, float[] t, float[] inv, float lambda, float eps) {
+    private void tvDenominator(float[] est, float[] t, float[] inv, float lambda, float eps, int y0, int y1) {
         // forward differences for ∇, backward for div (Rudin, Osher & Fatemi 1992 discretisation; common practice)
         float e2 = eps * eps;
-        for (int y = 0; y < gh; y++) {
+        for (int y = y0; y < y1; y++) {
             for (int x = 0; x < gw; x++) {
                 int i = y * gw + x;
                 float div = nx(est, x, y, e2) - (x > 0 ? nx(est, x - 1, y, e2) : 0f)
