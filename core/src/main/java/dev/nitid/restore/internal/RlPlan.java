@@ -19,7 +19,7 @@ import java.util.function.BooleanSupplier;
 /**
  * The Richardson–Lucy family on one image size with one PSF: the convolver (with the PSF's transfer
  * function) and every scratch buffer are made in the constructor; {@link #run} allocates no image-sized
- * array. Not thread-safe: one plan per thread of work.
+ * array. Not thread-safe: one plan per thread of work. Close it to stop the convolver's threads.
  *
  * <p>The iteration, on a grid that is the frame itself or, for {@link EdgeHandling#EXTENDED_DOMAIN}, the
  * frame padded by the PSF's half-size:
@@ -28,7 +28,7 @@ import java.util.function.BooleanSupplier;
  * {@code ε} the denominator guard. Pixels where {@code s} is below {@link #MIN_SENSITIVITY} are left as
  * they are (no data constrain them).
  */
-public final class RlPlan {
+public final class RlPlan implements AutoCloseable {
     /** Below this {@code s = Kᵀw} a pixel is unconstrained and keeps its value (our choice: 1e-6 of a unit PSF). */
     public static final float MIN_SENSITIVITY = 1e-6f;
     /** Exponent N of the damped form (White 1994 uses 10; from memory). */
@@ -125,6 +125,12 @@ public final class RlPlan {
         this.gBuf = acc ? new float[n] : null;
         this.dataGrid = ext ? new float[n] : null;
         this.invS = ext ? new float[n] : null;
+    }
+
+    /** Stops the convolver's threads; the plan must not be used afterwards. */
+    @Override
+    public void close() {
+        conv.close();
     }
 
     /** @return grid columns (frame plus padding) */
