@@ -56,6 +56,9 @@ final class PlanningRestorer implements Restorer {
             Method m = settings.method();
             if (m.iterative()) {
                 if (newPsf) {
+                    if (plan != null) {
+                        plan.close();
+                    }
                     plan = new RlPlan(w, h, k, settings.edges(), m, settings.threads());
                 }
                 StarProtection prot = settings.protection();
@@ -86,7 +89,10 @@ final class PlanningRestorer implements Restorer {
                 }
             } else {
                 if (newPsf) {
-                    filter = new FrequencyFilter(w, h, k, settings.edges());
+                    if (filter != null) {
+                        filter.close();
+                    }
+                    filter = new FrequencyFilter(w, h, k, settings.edges(), settings.threads());
                 }
                 float[] filled = d.clone();
                 for (int i = 0; i < filled.length; i++) {
@@ -101,6 +107,12 @@ final class PlanningRestorer implements Restorer {
                 reports.add(new PlaneReport(0, StopReason.SINGLE_PASS, List.of(), noise, masked, 0, setup,
                         System.nanoTime() - t1));
             }
+        }
+        if (plan != null) {
+            plan.close();
+        }
+        if (filter != null) {
+            filter.close();
         }
         return new RestorationResult(out, reports);
     }
