@@ -9,8 +9,8 @@ public enum PixelSampling {
      */
     POINT,
     /**
-     * The profile averaged over each pixel's square (3×3-point Gauss–Legendre quadrature): the FWHM is
-     * that of the optical PSF before the pixels sampled it. Nine times the cost of {@link #POINT}.
+     * The profile averaged over each pixel's square (2×2-point Gauss–Legendre quadrature): the FWHM is
+     * that of the optical PSF before the pixels sampled it. Four times the cost of {@link #POINT}.
      */
     INTEGRATED
 }

@@ -115,12 +115,56 @@ public final class StarProfileFit {
         if (shape == ProfileShape.GAUSSIAN) {
             return describe(ProfileShape.GAUSSIAN, g);
         }
+        return describe(ProfileShape.MOFFAT, fitMoffatFrom(g, start, data, w, width, height, integrated, settings));
+    }
+
+    /**
+     * Fits both profiles, the Moffat starting from the Gaussian (cheaper than two separate calls).
+     *
+     * @param stamp    pixels, row-major, NaN = ignore (input, not modified)
+     * @param weights  per-pixel weights 1/σ², or {@code null} (input, not modified)
+     * @param width    stamp width, ≥ 3
+     * @param height   stamp height, ≥ 3
+     * @param settings sampling and solver settings
+     * @return the Gaussian and the Moffat fit
+     */
+    public static ProfilePair fitBoth(float[] stamp, float[] weights, int width, int height,
+                                      ProfileFitSettings settings) {
+        StarProfile g = fit(stamp, weights, width, height, ProfileShape.GAUSSIAN, settings);
+        double[] data = new double[stamp.length];
+        for (int i = 0; i < stamp.length; i++) {
+            data[i] = stamp[i];
+        }
+        double[] w = null;
+        if (weights != null) {
+            w = new double[weights.length];
+            for (int i = 0; i < w.length; i++) {
+                w[i] = weights[i];
+            }
+        }
+        boolean integrated = settings.sampling() == PixelSampling.INTEGRATED;
+        FitResult m = fitMoffatFrom(g.fit(), initialGaussian(stamp, width, height), data, w, width, height,
+                integrated, settings);
+        return new ProfilePair(g, describe(ProfileShape.MOFFAT, m));
+    }
+
+    /**
+     * A Gaussian and a Moffat fit of the same stamp.
+     *
+     * @param gaussian the Gaussian + constant fit
+     * @param moffat   the Moffat + constant fit
+     */
+    public record ProfilePair(StarProfile gaussian, StarProfile moffat) {
+    }
+
+    private static FitResult fitMoffatFrom(FitResult g, double[] start, double[] data, double[] w, int width,
+                                           int height, boolean integrated, ProfileFitSettings settings) {
+        EllipticalProfileModel gauss = new EllipticalProfileModel(false, integrated, width, height);
         double[] gp = gauss.isValid(g.params()) ? g.params() : start;
         double k = (Math.pow(2, 1 / START_BETA) - 1) / (2 * LN2);
         double[] ms = {gp[0], gp[1], gp[2], gp[3] * k, gp[4] * k, gp[5] * k, START_BETA, gp[6]};
         EllipticalProfileModel moffat = new EllipticalProfileModel(true, integrated, width, height);
-        FitResult m = LevenbergMarquardt.fit(moffat, ms, data, w, settings.solver());
-        return describe(ProfileShape.MOFFAT, m);
+        return LevenbergMarquardt.fit(moffat, ms, data, w, settings.solver());
     }
 
     /** [A, x0, y0, a, b, c, B] from the stamp's simple statistics. */
