@@ -25,6 +25,7 @@ import picocli.CommandLine.Command;
         subcommands = {
             CommandLine.HelpCommand.class,
             InfoCommand.class,
+            MeasureCommand.class,
             AutoComplete.GenerateCompletion.class,
         },
         footerHeading = "%nExit codes:%n",
