@@ -105,7 +105,7 @@ class MeasureCommandTest {
         double scale = 206.264806 * 3.8 / 800;
         // The README rounds 648000/π/1000 to 206.264806 (9 digits): 1e-8 relative covers the rounding.
         assertEquals(scale, number(j, "plate_scale_arcsec"), 1e-8 * scale);
-        assertEquals(number(j, "fwhm_px") * scale, number(j, "fwhm_arcsec"), 1e-9);
+        assertEquals(number(j, "fwhm_px") * number(j, "plate_scale_arcsec"), number(j, "fwhm_arcsec"), 1e-9);
         assertEquals(9, j.split("\"column\"").length - 1, "3x3 regions");
     }
 
