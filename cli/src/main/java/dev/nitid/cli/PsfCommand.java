@@ -172,7 +172,7 @@ public final class PsfCommand implements Callable<Integer> {
             h = h.with("PLTSCALE", f.plateScaleArcsec().getAsDouble(), "[arcsec/px] 206.264806*PIXSIZE/FOCALLEN");
         }
         if (f.strehl().isPresent()) {
-            h = h.with("STREHL", f.strehl().getAsDouble(), "Strehl ratio at the image centre");
+            h = h.with("STREHL", f.strehl().getAsDouble(), "optical Strehl ratio (aberrations, no seeing)");
         }
         if (f.pixelOverNyquist().isPresent()) {
             h = h.with("NYQRATIO", f.pixelOverNyquist().getAsDouble(), "pixel / Nyquist pixel lambda_min/(2D)")

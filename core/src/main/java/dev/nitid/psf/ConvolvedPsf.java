@@ -112,6 +112,7 @@ public record ConvolvedPsf(PsfModel base, List<AnalyticPsf> kernels, List<PsfPar
         return Double.isFinite(plateScale) ? OptionalDouble.of(plateScale) : base.plateScaleArcsec();
     }
 
+    /** @return the base model's optical Strehl ratio: seeing and jitter are not aberrations of the optics */
     @Override
     public OptionalDouble strehl() {
         return base.strehl();
