@@ -24,8 +24,10 @@ import picocli.CommandLine.Command;
             ""},
         subcommands = {
             CommandLine.HelpCommand.class,
-            InfoCommand.class,
+            SharpenCommand.class,
             PsfCommand.class,
+            SimulateCommand.class,
+            InfoCommand.class,
             AutoComplete.GenerateCompletion.class,
         },
         footerHeading = "%nExit codes:%n",
