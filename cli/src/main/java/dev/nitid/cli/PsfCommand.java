@@ -31,15 +31,17 @@ import picocli.CommandLine.Spec;
  * optionally a preview picture.
  */
 @Command(name = "psf", mixinStandardHelpOptions = true, sortOptions = false,
-        description = {"Builds a PSF from a model and writes it as FITS: a Gaussian or Moffat of given FWHM,",
-            "or the diffraction pattern of a telescope (aperture, central obstruction, spider vanes,",
-            "Zernike aberrations, one wavelength or a band), optionally blurred by seeing and tracking",
-            "jitter. The PSF is odd-sized, centred on its middle pixel, pixel-integrated and sums to 1.",
+        description = {"Builds a PSF from a model and writes it as FITS: a Gaussian or Moffat of",
+            "given FWHM, or the diffraction pattern of a telescope (aperture, central",
+            "obstruction, spider vanes, Zernike aberrations, one wavelength or a band),",
+            "optionally blurred by seeing and tracking jitter. The PSF is odd-sized,",
+            "centred on its middle pixel, pixel-integrated and sums to 1.",
             "",
             "Examples:",
             "  nitid psf --model moffat --fwhm 3.2 --beta 3 -o moffat.fits",
-            "  nitid psf --model airy --aperture 200 --obstruction 0.33 --vanes 4 --vane-width 2 \\",
-            "      --focal-length 1000 --pixel-size 3.76 --band 500-600 --seeing 2 -o scope.fits --preview scope.png",
+            "  nitid psf --model airy --aperture 200 --obstruction 0.33 --vanes 4 \\",
+            "      --vane-width 2 --focal-length 1000 --pixel-size 3.76 --band 500-600 \\",
+            "      --seeing 2 -o scope.fits --preview scope.png",
             ""})
 public final class PsfCommand implements Callable<Integer> {
     @Spec
