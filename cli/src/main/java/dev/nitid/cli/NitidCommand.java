@@ -4,6 +4,7 @@ import java.io.IOException;
 import java.io.InputStream;
 import java.io.UncheckedIOException;
 import java.util.Properties;
+import picocli.AutoComplete;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
@@ -15,14 +16,19 @@ import picocli.CommandLine.Command;
         mixinStandardHelpOptions = true,
         versionProvider = NitidCommand.Version.class,
         description = {
-            "Restores detail in astronomical images by PSF-based deconvolution, models and measures PSFs,",
-            "and makes synthetic star fields with known truth.",
+            "Restores detail in astronomical images by PSF-based deconvolution, models and measures "
+                    + "PSFs, and makes synthetic star fields with known truth.",
             "",
-            "Deconvolved images are for viewing and morphology, not for photometry or astrometry unless",
-            "you have validated them for that use."},
+            "Caution: deconvolved images are for viewing and morphology, not for photometry or "
+                    + "astrometry unless you have validated them for that use.",
+            ""},
         subcommands = {
             CommandLine.HelpCommand.class,
+            SharpenCommand.class,
+            PsfCommand.class,
+            SimulateCommand.class,
             InfoCommand.class,
+            AutoComplete.GenerateCompletion.class,
         },
         footerHeading = "%nExit codes:%n",
         footer = {
@@ -51,7 +57,7 @@ public final class NitidCommand implements Runnable {
      */
     public static CommandLine commandLine() {
         CommandLine cl = new CommandLine(new NitidCommand());
-        cl.setExitCodeExceptionMapper(t -> ExitCode.INTERNAL);
+        cl.setExitCodeExceptionMapper(t -> t instanceof CommandLine.ParameterException ? ExitCode.USAGE : ExitCode.INTERNAL);
         return cl;
     }
 

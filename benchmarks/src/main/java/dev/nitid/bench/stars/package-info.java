@@ -1,0 +1,2 @@
+/** JMH benchmarks of star measurement. */
+package dev.nitid.bench.stars;

@@ -1,0 +1,511 @@
+package dev.nitid.restore.internal;
+
+import dev.nitid.fft.Boundary;
+import dev.nitid.fft.ConvolutionSettings;
+import dev.nitid.fft.Convolver;
+import dev.nitid.image.Image;
+import dev.nitid.restore.EdgeHandling;
+import dev.nitid.restore.IterationRecord;
+import dev.nitid.restore.Method;
+import dev.nitid.restore.ProgressListener;
+import dev.nitid.restore.StopReason;
+import dev.nitid.restore.StopRule;
+import dev.nitid.restore.Stopping;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.function.BooleanSupplier;
+
+/**
+ * The Richardson–Lucy family on one image size with one PSF: the convolver (with the PSF's transfer
+ * function) and every scratch buffer are made in the constructor; {@link #run} allocates no image-sized
+ * array. Not thread-safe: one plan per thread of work. Close it to stop the convolver's threads.
+ *
+ * <p>The iteration, on a grid that is the frame itself or, for {@link EdgeHandling#EXTENDED_DOMAIN}, the
+ * frame padded by the PSF's half-size:
+ * <pre>  o ← (o / s) · Kᵀ[ w (d + c) / (K o + c + ε) ],   s = Kᵀ w</pre>
+ * with {@code w} = 0 on masked pixels and outside the frame, 1 elsewhere; {@code c} the noise offset;
+ * {@code ε} the denominator guard. Pixels where {@code s} is below {@link #MIN_SENSITIVITY} are left as
+ * they are (no data constrain them).
+ */
+public final class RlPlan implements AutoCloseable {
+    /** Below this {@code s = Kᵀw} a pixel is unconstrained and keeps its value (our choice: 1e-6 of a unit PSF). */
+    public static final float MIN_SENSITIVITY = 1e-6f;
+    /** Exponent N of the damped form (White 1994 uses 10; from memory). */
+    public static final int DAMPING_POWER = 10;
+    /** The TV-RL denominator is kept at least this fraction of {@code s} (Dey et al. require it positive). */
+    public static final float TV_MIN_DENOMINATOR = 0.5f;
+
+    /**
+     * Conventions of the iteration that tests may change to reproduce other libraries.
+     *
+     * @param startValue constant start estimate, or NaN for the mean of the valid data (floored at
+     *                   {@code startFloor})
+     * @param startFloor lowest start value, &gt; 0
+     * @param guard      ε added to the denominator {@code K o + c}, ≥ 0
+     * @param normalise  divide by {@code s = Kᵀ w} (the general, boundary-correct form); false reproduces the
+     *                   plain form {@code o ← o · Kᵀ[...]}
+     * @param startImage a start estimate on the grid, or null (input, not modified); overrides startValue
+     */
+    public record Conventions(double startValue, double startFloor, double guard, boolean normalise,
+                              float[] startImage) {
+        /** @return our defaults: flat start at the data mean, no guard beyond the noise offset, normalised */
+        public static Conventions standard(double startFloor) {
+            return new Conventions(Double.NaN, startFloor, 0, true, null);
+        }
+    }
+
+    /**
+     * Parameters of the method run by the plan.
+     *
+     * @param method       one of the iterative methods
+     * @param offset       noise offset {@code c} in data units
+     * @param gain         electrons per data unit (scales the likelihood, χ² and the damping)
+     * @param tvWeight     λ of TV-RL
+     * @param tvEpsilon    added in quadrature to |∇o| in TV-RL, data units, &gt; 0
+     * @param dampingSigma T of damped RL
+     */
+    public record Params(Method method, double offset, double gain, double tvWeight, double tvEpsilon,
+                         double dampingSigma) {
+    }
+
+    private final int width;
+    private final int height;
+    private final int gw;
+    private final int gh;
+    private final int padX;
+    private final int padY;
+    private final Convolver conv;
+    /** The estimate on the grid: own storage on an extended grid, else the caller's output array. */
+    private float[] o;
+    private final float[] ownO;
+    private final float[] tmp;
+    private float[] xPrev;
+    private final float[] accBuf;
+    private final float[] gBuf;
+    /** Observed data on the grid, NaN where the weight is 0; null when the observed plane is used directly. */
+    private final float[] dataGrid;
+    private final float[] invS;
+    private final Method method;
+    private final int threads;
+
+    /**
+     * Plans a restoration.
+     *
+     * @param width   frame columns
+     * @param height  frame rows
+     * @param psf     unit-sum PSF (input, copied)
+     * @param edges   edge handling
+     * @param method  iterative method (decides which buffers exist)
+     * @param threads FFT worker threads
+     */
+    public RlPlan(int width, int height, Image psf, EdgeHandling edges, Method method, int threads) {
+        this.width = width;
+        this.height = height;
+        this.method = method;
+        this.threads = threads;
+        boolean ext = edges == EdgeHandling.EXTENDED_DOMAIN;
+        this.padX = ext ? psf.width() / 2 : 0;
+        this.padY = ext ? psf.height() / 2 : 0;
+        this.gw = width + (ext ? psf.width() - 1 : 0);
+        this.gh = height + (ext ? psf.height() - 1 : 0);
+        Boundary b = switch (edges) {
+            case ZERO, EXTENDED_DOMAIN -> Boundary.ZERO;
+            case REFLECT -> Boundary.REFLECT;
+            case PERIODIC -> Boundary.PERIODIC;
+        };
+        this.conv = Convolver.create(gw, gh, psf, new ConvolutionSettings(b, threads));
+        int n = gw * gh;
+        // buffers: tmp always; the estimate lives in the caller's output unless the grid is larger; the
+        // accelerated form adds x_{k−1} and g_{k−1} (its prediction y is recomputed on the fly)
+        this.ownO = ext ? new float[n] : null;
+        this.tmp = new float[n];
+        boolean acc = method == Method.ACCELERATED_RL;
+        this.accBuf = acc ? new float[n] : null;
+        this.gBuf = acc ? new float[n] : null;
+        this.dataGrid = ext ? new float[n] : null;
+        this.invS = ext ? new float[n] : null;
+    }
+
+    /** Stops the convolver's threads; the plan must not be used afterwards. */
+    @Override
+    public void close() {
+        conv.close();
+    }
+
+    /** @return grid columns (frame plus padding) */
+    public int gridWidth() {
+        return gw;
+    }
+
+    /** @return grid rows */
+    public int gridHeight() {
+        return gh;
+    }
+
+    /**
+     * Outcome of one run.
+     *
+     * @param iterations iterations completed
+     * @param reason     why it stopped
+     * @param history    per-iteration records
+     * @param nanos      time in the iterations
+     */
+    public record Outcome(int iterations, StopReason reason, List<IterationRecord> history, long nanos) {
+    }
+
+    /**
+     * Runs the iterations.
+     *
+     * @param observed  frame data, width × height (input, not modified); NaN/±∞ masked
+     * @param valid     per-pixel weight of the frame, or null when every finite pixel counts (input, not modified)
+     * @param floor     the star floor, or null (input, not modified)
+     * @param takeBack  after the last iteration, take the light the floor added to the rings back from the cores
+     * @param out       restored frame, width × height (output, modified)
+     * @param p         method parameters
+     * @param conv0     iteration conventions
+     * @param stop      stopping rule
+     * @param plane     plane index for the records
+     * @param listener  progress listener
+     * @param cancelled cancellation poll
+     * @return the outcome
+     */
+    public Outcome run(float[] observed, boolean[] valid, StarFloor.Floor floor, boolean takeBack, float[] out,
+                       Params p, Conventions conv0, Stopping stop, int plane, ProgressListener listener,
+                       BooleanSupplier cancelled) {
+        final int n = gw * gh;
+        if (out.length != width * height || observed.length != width * height) {
+            throw new IllegalArgumentException("observed has " + observed.length + " and out " + out.length
+                    + " pixels but this plan is for " + width + "x" + height + ": build a plan for that size");
+        }
+        o = ownO != null ? ownO : out;
+        xPrev = accBuf;
+        final float[] d;
+        final boolean[] w;
+        if (dataGrid != null) {
+            d = dataGrid;
+            w = null;
+            Arrays.fill(d, Float.NaN);
+            for (int y = 0; y < height; y++) {
+                for (int x = 0; x < width; x++) {
+                    int i = y * width + x;
+                    float v = observed[i];
+                    boolean ok = Float.isFinite(v) && (valid == null || valid[i]);
+                    d[(y + padY) * gw + x + padX] = ok ? v : Float.NaN;
+                }
+            }
+        } else {
+            // the observed plane is read in place; masked pixels are found through `valid` and isFinite
+            d = observed;
+            w = valid;
+        }
+        // sensitivity s = Kᵀ w
+        float[] inv = invS;
+        if (conv0.normalise()) {
+            boolean anyMasked = dataGrid != null;
+            if (!anyMasked) {
+                for (int i = 0; i < n; i++) {
+                    if (masked(d, w, i)) {
+                        anyMasked = true;
+                        break;
+                    }
+                }
+            }
+            if (anyMasked) {
+                if (inv == null) {
+                    inv = new float[n];
+                }
+                for (int i = 0; i < n; i++) {
+                    tmp[i] = masked(d, w, i) ? 0f : 1f;
+                }
+                conv.correlate(tmp, inv);
+                for (int i = 0; i < n; i++) {
+                    inv[i] = inv[i] >= MIN_SENSITIVITY ? 1f / inv[i] : 0f;
+                }
+            } else {
+                inv = null; // s = Σpsf = 1 everywhere for the reflective and periodic boundaries
+            }
+        } else {
+            inv = null;
+        }
+        // start estimate
+        double start = conv0.startValue();
+        if (Double.isNaN(start)) {
+            double sum = 0;
+            long cnt = 0;
+            for (int i = 0; i < n; i++) {
+                if (!masked(d, w, i)) {
+                    sum += d[i];
+                    cnt++;
+                }
+            }
+            start = Math.max(cnt > 0 ? sum / cnt : 0, conv0.startFloor());
+        }
+        if (conv0.startImage() != null) {
+            System.arraycopy(conv0.startImage(), 0, o, 0, n);
+        } else {
+            Arrays.fill(o, (float) start);
+        }
+        if (xPrev != null) {
+            System.arraycopy(o, 0, xPrev, 0, n);
+            Arrays.fill(gBuf, 0f);
+        }
+
+
+        final double c = p.offset();
+        final double g = p.gain();
+        final double guard = conv0.guard();
+        final boolean logLik = stop.needsLikelihood();
+        long nValid = 0;
+        for (int i = 0; i < n; i++) {
+            if (!masked(d, w, i)) {
+                nValid++;
+            }
+        }
+        List<IterationRecord> history = new ArrayList<>();
+        long t0 = System.nanoTime();
+        double prevL = Double.NaN;
+        double gDotPrev = Double.NaN; // Σ g_{k−1}² for the acceleration
+        double alphaNum = 0;
+        int k = 0;
+        StopReason reason = null;
+        double[] lifted = floor == null ? null : new double[Math.max(1, floor.stars())];
+        try (BlockPasses passes = new BlockPasses(gw, gh, threads)) {
+            final int nb = passes.blocks();
+            final double[] s1 = new double[nb];
+            final double[] s2 = new double[nb];
+            final double[] s3 = new double[nb];
+            final double[] s4 = new double[nb];
+            final float[] t = tmp;
+            final float[] sInv = inv;
+            while (reason == null) {
+                if (k >= stop.maxIterations()) {
+                    reason = stop.rule() == StopRule.FIXED_COUNT ? StopReason.FIXED_COUNT_REACHED : StopReason.ITERATION_CAP;
+                    break;
+                }
+                if (cancelled.getAsBoolean()) {
+                    reason = StopReason.CANCELLED;
+                    break;
+                }
+                final float[] x = o;
+                final float[] xp = xPrev;
+                final float a;
+                if (method == Method.ACCELERATED_RL) {
+                    double alpha = 0;
+                    if (k >= 2 && gDotPrev > 0) {
+                        alpha = Math.max(0, Math.min(alphaNum / gDotPrev, ACCEL_MAX));
+                    }
+                    a = (float) alpha;
+                    // tmp = y = max(0, x + α (x − x_{k−1}))
+                    passes.run((blk, from, to) -> {
+                        for (int i = from; i < to; i++) {
+                            t[i] = predict(x[i], xp[i], a);
+                        }
+                    });
+                    conv.convolve(t, t);
+                } else {
+                    a = 0f;
+                    conv.convolve(x, t);
+                }
+                // tmp = K est, then the ratio, then Kᵀ ratio
+                passes.run((blk, from, to) -> ratio(d, w, t, c, g, guard, p, logLik, from, to, s1, s2, blk));
+                double logL = logLik ? g * BlockPasses.sum(s1) : Double.NaN;
+                double chi2 = BlockPasses.sum(s2) / Math.max(1, nValid);
+                conv.correlate(t, t);
+                if (method == Method.TV_RL && p.tvWeight() > 0) {
+                    final float lam = (float) p.tvWeight();
+                    final float eps = (float) p.tvEpsilon();
+                    passes.run((blk, from, to) -> tvDenominator(x, t, sInv, lam, eps, from / gw, to / gw));
+                }
+                double change;
+                if (method == Method.ACCELERATED_RL) {
+                    // x_{k+1} = y · Kᵀ(...) / s goes into xPrev's storage (x_{k−1} is read first); g_k = x_{k+1} − y
+                    final float[] gb = gBuf;
+                    passes.run((blk, from, to) -> {
+                        double num = 0;
+                        double den = 0;
+                        double diff = 0;
+                        double tot = 0;
+                        for (int i = from; i < to; i++) {
+                            float xv = x[i];
+                            float yv = predict(xv, xp[i], a);
+                            float nv = update(yv, t[i], sInv, i);
+                            float gv = nv - yv;
+                            num += (double) gv * gb[i];
+                            den += (double) gb[i] * gb[i];
+                            gb[i] = gv;
+                            diff += Math.abs(nv - xv);
+                            tot += Math.abs(nv);
+                            xp[i] = nv;
+                        }
+                        s1[blk] = num;
+                        s2[blk] = den;
+                        s3[blk] = diff;
+                        s4[blk] = tot;
+                    });
+                    alphaNum = BlockPasses.sum(s1);
+                    gDotPrev = BlockPasses.sum(s2);
+                    float[] swap = o;
+                    o = xPrev;
+                    xPrev = swap;
+                } else {
+                    passes.run((blk, from, to) -> {
+                        double diff = 0;
+                        double tot = 0;
+                        for (int i = from; i < to; i++) {
+                            float nv = update(x[i], t[i], sInv, i);
+                            diff += Math.abs(nv - x[i]);
+                            tot += Math.abs(nv);
+                            x[i] = nv;
+                        }
+                        s3[blk] = diff;
+                        s4[blk] = tot;
+                    });
+                }
+                double tot = BlockPasses.sum(s4);
+                change = tot > 0 ? BlockPasses.sum(s3) / tot : 0;
+                if (floor != null) {
+                    floor.apply(o, lifted);
+                }
+                k++;
+                IterationRecord rec = new IterationRecord(plane, k, logL, chi2, change, System.nanoTime() - t0);
+                history.add(rec);
+                listener.onIteration(rec);
+                double gainPerPixel = Double.isNaN(prevL) ? Double.POSITIVE_INFINITY : (logL - prevL) / Math.max(1, nValid);
+                prevL = logL;
+                switch (stop.rule()) {
+                    case FIXED_COUNT -> { }
+                    case CHI_SQUARE -> {
+                        if (chi2 <= stop.threshold()) {
+                            reason = StopReason.CHI_SQUARE_REACHED;
+                        } else if (change < stop.minChange()) {
+                            reason = StopReason.STALLED;
+                        }
+                    }
+                    case LIKELIHOOD_GAIN -> {
+                        if (gainPerPixel < stop.threshold()) {
+                            reason = StopReason.LIKELIHOOD_CONVERGED;
+                        } else if (change < stop.minChange()) {
+                            reason = StopReason.STALLED;
+                        }
+                    }
+                }
+            }
+        }
+        if (floor != null && k > 0 && takeBack) {
+            // the ring the last update dug was light moved into the cores: return it
+            floor.takeBack(o, lifted);
+        }
+        long nanos = System.nanoTime() - t0;
+        if (o != out) {
+            for (int y = 0; y < height; y++) {
+                System.arraycopy(o, (y + padY) * gw + padX, out, y * width, width);
+            }
+        }
+        o = null;
+        xPrev = null;
+        return new Outcome(k, reason, history, nanos);
+    }
+
+    /** Largest extrapolation factor of the accelerated form (Biggs &amp; Andrews clip α below 1). */
+    public static final double ACCEL_MAX = 0.999;
+
+    private static float predict(float x, float prev, float a) {
+        float y = x + a * (x - prev);
+        return y > 0 ? y : 0f;
+    }
+
+    private static boolean masked(float[] d, boolean[] w, int i) {
+        return !Float.isFinite(d[i]) || (w != null && !w[i]);
+    }
+
+    private static float update(float est, float back, float[] inv, int i) {
+        if (inv == null) {
+            return est * back;
+        }
+        float s = inv[i];
+        return s == 0f ? est : est * back * s;
+    }
+
+    /**
+     * Replaces {@code tmp} (holding {@code K o}) by the ratio on {@code [from, to)}; stores the block's
+     * log-likelihood (in data units, before the gain) and χ² sums.
+     */
+    private static void ratio(float[] d, boolean[] w, float[] tmp, double c, double g, double guard, Params p,
+                              boolean logLik, int from, int to, double[] sumL, double[] sumChi, int blk) {
+        double logL = 0;
+        double chi2 = 0;
+        final boolean damped = p.method() == Method.DAMPED_RL;
+        final double t2 = p.dampingSigma() * p.dampingSigma();
+        final double minVar = 1.0 / g;
+        for (int i = from; i < to; i++) {
+            float dv = d[i];
+            if (!Float.isFinite(dv) || (w != null && !w[i])) {
+                tmp[i] = 0f;
+                continue;
+            }
+            double model = (double) tmp[i] + c;
+            double data = Math.max(0, (double) dv + c);
+            double r = dv - tmp[i];
+            chi2 += r * r * g / Math.max(model, minVar);
+            if (logLik) {
+                logL += model > 0 ? data * Math.log(model) - model : -model;
+            }
+            double den = model + guard;
+            if (!damped) {
+                tmp[i] = den > 0 ? (float) (data / den) : 0f;
+            } else {
+                // White (1994), in electrons: U = min(1, (2/T²)[D ln(D/B) − D + B])
+                double bb = g * den;
+                double dd = g * data;
+                if (bb <= 0) {
+                    tmp[i] = 0f;
+                    continue;
+                }
+                double dev = dd > 0 ? dd * Math.log(dd / bb) - dd + bb : bb;
+                double u = Math.min(1.0, 2.0 / t2 * dev);
+                double un = Math.pow(u, DAMPING_POWER - 1);
+                tmp[i] = (float) (1.0 + un * (DAMPING_POWER - (DAMPING_POWER - 1) * u) * (dd - bb) / bb);
+            }
+        }
+        sumL[blk] = logL;
+        sumChi[blk] = chi2;
+    }
+
+    /** tmp ← tmp / max(s − λ div(∇o/|∇o|), TV_MIN_DENOMINATOR·s), scaled so that the update divides by s. */
+    private void tvDenominator(float[] est, float[] t, float[] inv, float lambda, float eps, int y0, int y1) {
+        // forward differences for ∇, backward for div (Rudin, Osher & Fatemi 1992 discretisation; common practice)
+        float e2 = eps * eps;
+        for (int y = y0; y < y1; y++) {
+            for (int x = 0; x < gw; x++) {
+                int i = y * gw + x;
+                float div = nx(est, x, y, e2) - (x > 0 ? nx(est, x - 1, y, e2) : 0f)
+                        + ny(est, x, y, e2) - (y > 0 ? ny(est, x, y - 1, e2) : 0f);
+                float s = inv == null ? 1f : (inv[i] > 0 ? 1f / inv[i] : 1f);
+                float den = Math.max(s - lambda * div, TV_MIN_DENOMINATOR * s);
+                // the update multiplies by 1/s afterwards, so fold s/den into tmp
+                t[i] = t[i] * s / den;
+            }
+        }
+    }
+
+    private float nx(float[] a, int x, int y, float e2) {
+        if (x + 1 >= gw) {
+            return 0f;
+        }
+        int i = y * gw + x;
+        float gx = a[i + 1] - a[i];
+        float gy = y + 1 < gh ? a[i + gw] - a[i] : 0f;
+        return gx / (float) Math.sqrt(gx * gx + gy * gy + e2);
+    }
+
+    private float ny(float[] a, int x, int y, float e2) {
+        if (y + 1 >= gh) {
+            return 0f;
+        }
+        int i = y * gw + x;
+        float gy = a[i + gw] - a[i];
+        float gx = x + 1 < gw ? a[i + 1] - a[i] : 0f;
+        return gy / (float) Math.sqrt(gx * gx + gy * gy + e2);
+    }
+}

@@ -1,0 +1,25 @@
+package dev.nitid.stars;
+
+/**
+ * Robust aggregate of one profile shape over the accepted stars: medians, and 1.4826·MAD spreads
+ * (Hampel 1974, JASA 69, 383). The angle is the median after aligning axial angles on their doubled-angle
+ * mean direction (Mardia &amp; Jupp, Directional Statistics, 2000, §9.3.1: axial data).
+ *
+ * @param shape          profile
+ * @param count          stars whose fit of this shape converged
+ * @param fwhm           median geometric-mean FWHM √(major·minor), px
+ * @param fwhmSpread     1.4826·MAD of the FWHM, px
+ * @param fwhmMajor      median major FWHM, px
+ * @param fwhmMinor      median minor FWHM, px
+ * @param ellipticity    median 1 − minor/major
+ * @param ellipticitySpread 1.4826·MAD of the ellipticity
+ * @param angle          median major-axis angle, radians in [0, π), from +x towards +y
+ * @param beta           median Moffat β (NaN for a Gaussian)
+ * @param betaSpread     1.4826·MAD of β (NaN for a Gaussian)
+ * @param bic            Bayesian information criterion summed over the stars where both shapes converged,
+ *                       {@code Σ χ²/σ² + k ln n} (Schwarz 1978, Ann. Stat. 6, 461); lower is better
+ */
+public record ProfileSummary(ProfileShape shape, int count, double fwhm, double fwhmSpread, double fwhmMajor,
+                             double fwhmMinor, double ellipticity, double ellipticitySpread, double angle,
+                             double beta, double betaSpread, double bic) {
+}

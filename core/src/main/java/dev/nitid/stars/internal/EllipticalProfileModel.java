@@ -1,0 +1,157 @@
+package dev.nitid.stars.internal;
+
+import dev.nitid.stars.fit.Model;
+
+/**
+ * Elliptical 2-D Gaussian or Moffat profile plus a constant, over a {@code w × h} stamp, as a
+ * least-squares {@link Model}.
+ *
+ * <p>The ellipse is the quadratic form {@code Q = a·dx² + 2b·dx·dy + c·dy²} with {@code dx = x − x0},
+ * {@code dy = y − y0}; this parametrisation has no degeneracy for round stars (unlike major/minor/angle).
+ * <ul>
+ *   <li>Gaussian, parameters {@code [A, x0, y0, a, b, c, B]}: {@code f = A·exp(−Q/2) + B}.</li>
+ *   <li>Moffat (Moffat 1969, A&amp;A 3, 455), parameters {@code [A, x0, y0, a, b, c, β, B]}:
+ *       {@code f = A·(1 + Q)^(−β) + B}; for a round star {@code a = c = 1/α²}.</li>
+ * </ul>
+ * Pixel {@code (i, j)} has its centre at {@code x = i, y = j}. With point sampling the model is evaluated
+ * at the centre; with integration it is averaged over the pixel square by 2×2-point Gauss–Legendre
+ * quadrature (nodes ±1/(2√3), equal weights; Abramowitz &amp; Stegun 1964, 25.4.29 and Table 25.4), exact
+ * for cubic polynomials and within 0.1 % of the pixel integral for a FWHM ≥ 2 px.
+ * Not thread-safe (scratch state); one instance per fit.
+ */
+public final class EllipticalProfileModel implements Model {
+    /** Gauss–Legendre 2-point nodes on [−1/2, 1/2]. */
+    private static final double[] NODES = {-0.5 / Math.sqrt(3), 0.5 / Math.sqrt(3)};
+    /** Gauss–Legendre 2-point weights on [−1/2, 1/2], summing to 1. */
+    private static final double[] WEIGHTS = {0.5, 0.5};
+    /** Smallest β allowed: below 1 a Moffat profile has infinite flux. */
+    public static final double MIN_BETA = 1.0 + 1e-6;
+    /** Largest β allowed: beyond it the Moffat is a Gaussian to working precision. */
+    public static final double MAX_BETA = 100;
+
+    private final boolean moffat;
+    private final boolean integrated;
+    private final int width;
+    private final int height;
+    private final double[] grad;
+
+    /**
+     * @param moffat     true for Moffat, false for Gaussian
+     * @param integrated true to integrate over each pixel, false to sample its centre
+     * @param width      stamp width
+     * @param height     stamp height
+     */
+    public EllipticalProfileModel(boolean moffat, boolean integrated, int width, int height) {
+        this.moffat = moffat;
+        this.integrated = integrated;
+        this.width = width;
+        this.height = height;
+        this.grad = new double[8];
+    }
+
+    @Override
+    public int parameterCount() {
+        return moffat ? 8 : 7;
+    }
+
+    @Override
+    public int pointCount() {
+        return width * height;
+    }
+
+    @Override
+    public boolean isValid(double[] q) {
+        for (double v : q) {
+            if (!Double.isFinite(v)) {
+                return false;
+            }
+        }
+        double a = q[3];
+        double b = q[4];
+        double c = q[5];
+        if (!(a > 0 && c > 0 && a * c - b * b > 0)) {
+            return false;
+        }
+        // Keep the centre within one stamp size of the stamp: beyond that the fit has lost the star.
+        if (q[1] < -width || q[1] > 2 * width || q[2] < -height || q[2] > 2 * height) {
+            return false;
+        }
+        return !moffat || (q[6] >= MIN_BETA && q[6] <= MAX_BETA);
+    }
+
+    @Override
+    public void evaluate(double[] q, double[] values, double[] jacobian) {
+        final int p = parameterCount();
+        for (int j = 0; j < height; j++) {
+            for (int i = 0; i < width; i++) {
+                int idx = j * width + i;
+                double v;
+                if (!integrated) {
+                    v = point(q, i, j, jacobian != null);
+                    if (jacobian != null) {
+                        System.arraycopy(grad, 0, jacobian, idx * p, p);
+                    }
+                } else {
+                    v = 0;
+                    if (jacobian != null) {
+                        java.util.Arrays.fill(jacobian, idx * p, idx * p + p, 0.0);
+                    }
+                    for (int sj = 0; sj < NODES.length; sj++) {
+                        for (int si = 0; si < NODES.length; si++) {
+                            double wgt = WEIGHTS[si] * WEIGHTS[sj];
+                            v += wgt * point(q, i + NODES[si], j + NODES[sj], jacobian != null);
+                            if (jacobian != null) {
+                                for (int k = 0; k < p; k++) {
+                                    jacobian[idx * p + k] += wgt * grad[k];
+                                }
+                            }
+                        }
+                    }
+                }
+                values[idx] = v;
+            }
+        }
+    }
+
+    /** Value at (x, y); fills {@link #grad} with ∂f/∂q when asked. */
+    private double point(double[] q, double x, double y, boolean wantGrad) {
+        double amp = q[0];
+        double dx = x - q[1];
+        double dy = y - q[2];
+        double a = q[3];
+        double b = q[4];
+        double c = q[5];
+        double quad = a * dx * dx + 2 * b * dx * dy + c * dy * dy;
+        if (!moffat) {
+            double e = Math.exp(-0.5 * quad);
+            double ae = amp * e;
+            if (wantGrad) {
+                grad[0] = e;
+                grad[1] = ae * (a * dx + b * dy);
+                grad[2] = ae * (b * dx + c * dy);
+                grad[3] = -0.5 * ae * dx * dx;
+                grad[4] = -ae * dx * dy;
+                grad[5] = -0.5 * ae * dy * dy;
+                grad[6] = 1;
+            }
+            return ae + q[6];
+        }
+        double beta = q[6];
+        double u = 1 + quad;
+        double lu = Math.log(u);
+        double m = Math.exp(-beta * lu);
+        double am = amp * m;
+        if (wantGrad) {
+            double dq = -beta * am / u;
+            grad[0] = m;
+            grad[1] = -2 * dq * (a * dx + b * dy);
+            grad[2] = -2 * dq * (b * dx + c * dy);
+            grad[3] = dq * dx * dx;
+            grad[4] = 2 * dq * dx * dy;
+            grad[5] = dq * dy * dy;
+            grad[6] = -am * lu;
+            grad[7] = 1;
+        }
+        return am + q[7];
+    }
+}
