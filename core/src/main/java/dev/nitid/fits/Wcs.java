@@ -20,11 +20,16 @@ public final class Wcs {
      * the determinant is the geometric mean of the two axis scales, common practice).
      *
      * @param h the header (input, not modified)
-     * @return the scale, or empty if axes 1 and 2 are not a celestial pair (CTYPE), have no usable CD or
-     *         CDELT values, or are not in degrees
+     * @return the scale, or empty if axes 1 and 2 are neither a celestial pair (CTYPE) nor explicitly in
+     *         degrees (CUNIT), have another unit, or have no usable CD or CDELT values
      */
     public static OptionalDouble pixelScaleArcsec(FitsHeader h) {
-        if (!celestial(h.getString("CTYPE1").orElse(""), h.getString("CTYPE2").orElse(""))) {
+        // Axis values are angles in degrees when the units say so explicitly, or when the axes are a
+        // celestial pair, whose default unit is the degree (Greisen & Calabretta 2002, §2.1.1; Calabretta &
+        // Greisen 2002, §2). Other linear axes ('LINE', 'UNITLESS' ...) have no angular scale.
+        boolean degrees = h.getString("CUNIT1").orElse("").trim().equalsIgnoreCase("deg")
+                && h.getString("CUNIT2").orElse("").trim().equalsIgnoreCase("deg");
+        if (!degrees && !celestial(h.getString("CTYPE1").orElse(""), h.getString("CTYPE2").orElse(""))) {
             return OptionalDouble.empty();
         }
         for (String axis : new String[] {"CUNIT1", "CUNIT2"}) {
