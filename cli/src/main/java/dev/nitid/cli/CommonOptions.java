@@ -2,7 +2,6 @@ package dev.nitid.cli;
 
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
-import picocli.CommandLine.ParameterException;
 import picocli.CommandLine.Spec;
 
 /**
@@ -22,19 +21,26 @@ public final class CommonOptions {
     @Option(names = {"-v", "--verbose"}, description = "Print progress and details.")
     boolean verbose;
 
-    private int threads = 0;
-
-    /**
-     * @param n worker threads, ≥ 1
-     */
     @Option(names = "--threads", paramLabel = "N",
             description = "Worker threads (default: all available processors). Results do not depend on it.")
-    void setThreads(int n) {
-        if (n < 1) {
-            throw new ParameterException(mixee.commandLine(), "--threads is " + n
+    int threads = 0;
+
+    /**
+     * Checks the values picocli cannot check by type; {@link Failures#run} calls it before the command's body.
+     *
+     * @throws IllegalArgumentException naming the option and the fix
+     */
+    public void validate() {
+        if (threads < 0 || (threads == 0 && threadsGiven())) {
+            throw new IllegalArgumentException("--threads is " + threads
                     + ", but at least 1 thread is needed (give a positive number or leave the option out)");
         }
-        threads = n;
+    }
+
+    private boolean threadsGiven() {
+        return mixee != null && mixee.commandLine() != null
+                && mixee.commandLine().getParseResult() != null
+                && mixee.commandLine().getParseResult().hasMatchedOption("--threads");
     }
 
     /** @return true if stack traces are wanted */

@@ -56,6 +56,9 @@ public final class Failures {
         boolean debug = common != null && common.debug();
         NOM_TAM.setLevel(debug ? Level.ALL : Level.OFF);
         try {
+            if (common != null) {
+                common.validate();
+            }
             Integer code = body.call();
             return code == null ? ExitCode.OK : code;
         } catch (Throwable t) {

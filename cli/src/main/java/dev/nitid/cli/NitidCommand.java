@@ -24,6 +24,9 @@ import picocli.CommandLine.Command;
             ""},
         subcommands = {
             CommandLine.HelpCommand.class,
+            SharpenCommand.class,
+            PsfCommand.class,
+            SimulateCommand.class,
             InfoCommand.class,
             MeasureCommand.class,
             AutoComplete.GenerateCompletion.class,

@@ -22,17 +22,21 @@ import dev.nitid.image.Image;
  * <h2>How it is computed</h2>
  * Either one real FFT of the extended image ({@code W + pw − 1} × {@code H + ph − 1}) padded to the
  * next fast size ({@link FftSizes#nextFast}; {@link #fftWidth()}/{@link #fftHeight()} report it), or
- * overlap-save tiles of a fast size with a halo of PSF size − 1 ({@link Tiling}). With
+ * overlap-save tiles of a power-of-two size with a halo of PSF size − 1 ({@link Tiling}). With
  * {@link Tiling#AUTO} the rule is: tiles when the whole-plane FFT grid has at least 768² pixels
- * and a tile smaller than it exists (see {@link #tileSize}), the whole plane otherwise. Measured on one
+ * and a tile smaller than it exists, the whole plane otherwise. The tile side per axis is the power
+ * of two in [128, 1024] minimising {@code ⌈n/(T − p + 1)⌉ · T · (log₂T + 3.5)}. Measured on one
  * thread (CPU time, {@code notes/fft.md}): 1024² image, 31² PSF: whole 49 ms, 256² tiles 22 ms;
  * 4096²: whole 491 ms, tiles 303 ms; 512²: whole 9.0 ms, tiles 9.5 ms.
  *
  * <h2>Cost, memory and threads</h2>
- * The plan (FFT sizes, the PSF's transfer function, scratch) is built once in {@link #create}; calls
- * allocate no image-sized arrays (the tiled path allocates, once, an extended-image buffer on the first
- * {@link #correlate}, and a copy of the input on the first in-place {@link #convolve}). Working memory:
- * whole plane about 2 padded planes; tiled a few tiles per thread plus the buffers just named.
+ * The plan (FFT sizes, the PSF's transfer function, scratch) is built once in {@link #create}. The
+ * tiled path allocates nothing per call once it has made, on first need, an extended-image buffer
+ * (first {@link #correlate}) and a copy of the input (first in-place {@link #convolve}); the whole-plane
+ * path allocates no image-sized array, but JTransforms' mixed-radix code allocates one scratch row per
+ * 1-D transform on grids that are not powers of two. Working memory beyond input and output for a
+ * 4096² image and a 31² PSF: whole plane 2.2 planes (spectrum and transfer function on 4320²); tiled
+ * 0.1 plane, plus 1 plane once {@link #correlate} or an in-place call has run.
  * Results are bit-identical whatever {@code settings.threads()}: every row, column or tile is computed
  * by the same code on one thread. The worker threads are daemons; {@link #close()} stops them at once
  * (an unreachable plan stops them too). Not thread-safe: one caller at a time.

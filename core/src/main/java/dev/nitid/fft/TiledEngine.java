@@ -152,7 +152,7 @@ final class TiledEngine implements Engine {
                 k.rowsForward(b, r0, r1);
             }
             k.columnsFilter(b, 0, stride / 2, otf, false);
-            k.rowsInverse(b, g.offY, g.offY + ny);
+            k.rowsInverse(b, g.offY, g.offY + ny, false);
             for (int r = 0; r < ny; r++) {
                 System.arraycopy(b, (g.offY + r) * stride + g.offX, curOut, (y0 + r) * g.w + x0, nx);
             }
@@ -194,7 +194,7 @@ final class TiledEngine implements Engine {
                 k.rowsForward(b, r0, r1);
             }
             k.columnsFilter(b, 0, stride / 2, otf, true);
-            k.rowsInverse(b, g.cy, g.cy + ny);
+            k.rowsInverse(b, g.cy, g.cy + ny, false);
             for (int r = 0; r < ny; r++) {
                 System.arraycopy(b, (g.cy + r) * stride + g.cx, ext, (e0y + r) * g.extW + e0x, nx);
             }

@@ -107,12 +107,20 @@ public final class FitsWriter {
                 h.addValue("BZERO", 32768, "unsigned 16-bit: physical = stored + 32768");
                 h.addValue("BSCALE", 1, null);
             }
+            boolean longStrings = false;
             for (Card c : header.cards()) {
                 String key = c.key().toUpperCase(Locale.ROOT);
                 if (DROPPED.contains(key) || key.matches("NAXIS\\d+")) {
                     continue;
                 }
-                h.addLine(toNomTam(c));
+                HeaderCard card = toNomTam(c);
+                longStrings |= card.cardSize() > 1 && !card.isCommentStyleCard();
+                h.addLine(card);
+            }
+            if (longStrings && !h.containsKey("LONGSTRN")) {
+                // Announces CONTINUE cards (HEASARC long-string convention, OGIP 1.0; fitsverify warns
+                // without it). CONTINUE itself is part of FITS Standard 4.0 §4.2.1.2.
+                h.addValue("LONGSTRN", "OGIP 1.0", "The OGIP long string convention may be used");
             }
             h.addValue("DATE", ZonedDateTime.now(ZoneOffset.UTC).truncatedTo(ChronoUnit.SECONDS).format(DATE),
                     "UTC date this file was written");

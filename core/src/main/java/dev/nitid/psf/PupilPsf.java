@@ -254,8 +254,8 @@ public record PupilPsf(double apertureMm, double obstruction, int vanes, double 
         p.add(PsfParameter.of("VANEANG", vaneAngleDeg, "[deg] first vane angle from +x towards +y"));
         p.add(PsfParameter.of("FOCALLEN", focalLengthMm, "[mm] focal length"));
         p.add(PsfParameter.of("PIXSIZE", pixelSizeUm, "[um] detector pixel pitch"));
-        p.add(PsfParameter.of("WAVEMIN", spectrum.shortestNm(), "[nm] shortest wavelength"));
-        p.add(PsfParameter.of("WAVEMAX", spectrum.longestNm(), "[nm] longest wavelength"));
+        p.add(PsfParameter.of("WAVEMIN", spectrum.shortestNm(), "[nm] shortest wavelength sampled"));
+        p.add(PsfParameter.of("WAVEMAX", spectrum.longestNm(), "[nm] longest wavelength sampled"));
         p.add(PsfParameter.of("NWAVE", (long) spectrum.size(), "wavelengths summed, equal photon weights"));
         for (Map.Entry<Integer, Double> e : zernike.nonZero().entrySet()) {
             p.add(PsfParameter.of("ZERN" + e.getKey(), e.getValue(), "[waves RMS] Zernike Noll " + e.getKey()

@@ -6,7 +6,8 @@ package dev.nitid.restore;
  * @param plane          image plane, 0-based
  * @param iteration      iterations completed, 1-based
  * @param logLikelihood  Poisson log-likelihood of the estimate before this update,
- *                       {@code L = g Σ w [(d + c) ln(K o + c) − (K o + c)]} (no {@code ln d!} term)
+ *                       {@code L = g Σ w [(d + c) ln(K o + c) − (K o + c)]} (no {@code ln d!} term);
+ *                       NaN unless {@link Stopping#needsLikelihood()}
  * @param chiSquare      residual {@code χ²/N} of that estimate under the noise model
  * @param relativeChange {@code Σ|o_new − o| / Σ|o|} of this update
  * @param elapsedNanos   time since the iterations of this plane started

@@ -8,6 +8,8 @@ public enum StopReason {
     CHI_SQUARE_REACHED,
     /** The log-likelihood gain per pixel fell below the threshold. */
     LIKELIHOOD_CONVERGED,
+    /** An automatic rule stopped because an update barely changed the estimate ({@link Stopping#minChange()}). */
+    STALLED,
     /** An automatic rule had not fired when the iteration cap was reached. */
     ITERATION_CAP,
     /** The caller cancelled; the result holds the last completed iterate. */

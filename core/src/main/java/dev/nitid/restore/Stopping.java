@@ -1,23 +1,28 @@
 package dev.nitid.restore;
 
 /**
- * The stopping rule of an iterative restoration.
+ * The stopping rule of an iterative restoration, and what each iteration records.
  *
- * @param rule          which rule
- * @param maxIterations the count for {@link StopRule#FIXED_COUNT}, the cap otherwise; ≥ 1
- * @param threshold     target χ²/N for {@link StopRule#CHI_SQUARE}, likelihood gain per pixel for
- *                      {@link StopRule#LIKELIHOOD_GAIN}; ignored for a fixed count; finite and &gt; 0
- * @param minGain       the likelihood-gain floor that also stops a {@link StopRule#CHI_SQUARE} run; ≥ 0
+ * @param rule             which rule
+ * @param maxIterations    the count for {@link StopRule#FIXED_COUNT}, the cap otherwise; ≥ 1
+ * @param threshold        target χ²/N for {@link StopRule#CHI_SQUARE}, likelihood gain per pixel for
+ *                         {@link StopRule#LIKELIHOOD_GAIN}; ignored for a fixed count; finite and &gt; 0
+ * @param minChange        automatic rules also stop when an update changes the estimate by less than this,
+ *                         {@code Σ|o_new − o| / Σ|o_new|} (a stall); ≥ 0
+ * @param recordLikelihood compute the Poisson log-likelihood every iteration (one logarithm per pixel,
+ *                         a noticeable share of an iteration's time on large frames); always on for
+ *                         {@link StopRule#LIKELIHOOD_GAIN}; when off, the records carry NaN
  */
-public record Stopping(StopRule rule, int maxIterations, double threshold, double minGain) {
+public record Stopping(StopRule rule, int maxIterations, double threshold, double minChange,
+                       boolean recordLikelihood) {
     /** Default cap of automatic rules: enough for the accelerated form on seeing-limited data (measured). */
     public static final int DEFAULT_CAP = 100;
     /**
-     * Default likelihood gain per pixel below which iterating is not worth it: 1e-4 electron-units per
-     * pixel, i.e. the whole image's likelihood improves by less than a ten-thousandth of a count per
-     * pixel (our choice, tuned on synthetic fields; see notes/restore.md).
+     * Default stall threshold: an update that moves the estimate by less than 1e-5 of its total is not worth
+     * another iteration (our choice; accelerated RL moves it by 1e-3 to 1e-2 per iteration while it still
+     * sharpens, measured on synthetic fields, see notes/restore.md).
      */
-    public static final double DEFAULT_MIN_GAIN = 1e-4;
+    public static final double DEFAULT_MIN_CHANGE = 1e-5;
 
     /** Validates the rule. */
     public Stopping {
@@ -30,33 +35,43 @@ public record Stopping(StopRule rule, int maxIterations, double threshold, doubl
         if (!(threshold > 0) || Double.isInfinite(threshold)) {
             throw new IllegalArgumentException("stop threshold is " + threshold + ": use a finite value > 0");
         }
-        if (!(minGain >= 0) || Double.isInfinite(minGain)) {
-            throw new IllegalArgumentException("minGain is " + minGain + ": use a finite value >= 0");
+        if (!(minChange >= 0) || Double.isInfinite(minChange)) {
+            throw new IllegalArgumentException("minChange is " + minChange + ": use a finite value >= 0");
         }
     }
 
-    /** @return exactly {@code n} iterations */
+    /** @return exactly {@code n} iterations, recording the likelihood */
     public static Stopping fixed(int n) {
-        return new Stopping(StopRule.FIXED_COUNT, n, 1, 0);
+        return new Stopping(StopRule.FIXED_COUNT, n, 1, 0, true);
     }
 
-    /** @return stop when χ²/N reaches 1 (or the gain falls below the default), at most {@link #DEFAULT_CAP} */
+    /** @return stop when χ²/N reaches 1 (or the estimate stalls), at most {@link #DEFAULT_CAP} iterations */
     public static Stopping chiSquare() {
-        return new Stopping(StopRule.CHI_SQUARE, DEFAULT_CAP, 1.0, DEFAULT_MIN_GAIN);
+        return new Stopping(StopRule.CHI_SQUARE, DEFAULT_CAP, 1.0, DEFAULT_MIN_CHANGE, true);
     }
 
     /** @return stop when the likelihood gain per pixel falls below {@code gain}, at most {@link #DEFAULT_CAP} */
     public static Stopping likelihoodGain(double gain) {
-        return new Stopping(StopRule.LIKELIHOOD_GAIN, DEFAULT_CAP, gain, gain);
+        return new Stopping(StopRule.LIKELIHOOD_GAIN, DEFAULT_CAP, gain, DEFAULT_MIN_CHANGE, true);
     }
 
     /** @return this rule with another cap or count */
     public Stopping withMaxIterations(int n) {
-        return new Stopping(rule, n, threshold, minGain);
+        return new Stopping(rule, n, threshold, minChange, recordLikelihood);
     }
 
     /** @return this rule with another threshold */
     public Stopping withThreshold(double t) {
-        return new Stopping(rule, maxIterations, t, minGain);
+        return new Stopping(rule, maxIterations, t, minChange, recordLikelihood);
+    }
+
+    /** @return this rule with the likelihood recorded or not */
+    public Stopping withRecordLikelihood(boolean on) {
+        return new Stopping(rule, maxIterations, threshold, minChange, on);
+    }
+
+    /** @return true if iterations must compute the likelihood */
+    public boolean needsLikelihood() {
+        return recordLikelihood || rule == StopRule.LIKELIHOOD_GAIN;
     }
 }

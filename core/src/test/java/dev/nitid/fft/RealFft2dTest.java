@@ -51,6 +51,34 @@ class RealFft2dTest {
     }
 
     @Test
+    void jtransformsInnerThreadsDoNotChangeLongTransforms() {
+        // JTransforms splits 1-D transforms longer than CommonUtils.getThreadsBeginN_1D_FFT_2Threads()
+        // (8192) over its own pool when ConcurrencyUtils allows more than one thread. Our determinism
+        // promise needs those results to be the same bits as its single-threaded path. 16384 takes the
+        // split-radix path; 8191·2 + 1 = 16383 is 3·43·127 and takes Bluestein.
+        int previous = org.visnow.jlargearrays.ConcurrencyUtils.getNumberOfThreads();
+        try {
+            for (int w : new int[] {16384, 16383}) {
+                float[] x = Oracles.random(new SplittableRandom(w), 2 * w);
+                org.visnow.jlargearrays.ConcurrencyUtils.setNumberOfThreads(1);
+                float[] s1;
+                try (RealFft2d one = RealFft2d.create(w, 2, 1)) {
+                    s1 = one.newSpectrum();
+                    one.forward(x, s1);
+                }
+                org.visnow.jlargearrays.ConcurrencyUtils.setNumberOfThreads(4);
+                try (RealFft2d four = RealFft2d.create(w, 2, 1)) {
+                    float[] s4 = four.newSpectrum();
+                    four.forward(x, s4);
+                    assertArrayEquals(s1, s4, "length " + w + ": JTransforms 1 vs 4 inner threads");
+                }
+            }
+        } finally {
+            org.visnow.jlargearrays.ConcurrencyUtils.setNumberOfThreads(previous);
+        }
+    }
+
+    @Test
     void agreesWithJTransformsComplex2d() {
         // JTransforms 3.2 FloatFFT_2D.complexForward as an independent oracle on a 2·3·5-smooth size.
         int w = 60;

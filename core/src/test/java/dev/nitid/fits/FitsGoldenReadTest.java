@@ -98,6 +98,44 @@ class FitsGoldenReadTest {
         }
     }
 
+    /**
+     * The second golden set ({@code testdata/scripts/gen_fits_golden_extra.py}, astropy 5.2.1): an image in
+     * an extension with BSCALE/BZERO, a gzip file, a uint8 colour cube, int64. Every pixel must equal
+     * astropy's physical value rounded to float32 (the reader's pixel type), NaN where astropy has NaN.
+     */
+    @Test
+    void extraGoldenFilesMatchAstropy() throws Exception {
+        int checked = 0;
+        java.util.Map<String, FitsImage> cache = new java.util.HashMap<>();
+        for (String line : Reference.lines("golden/fits_extra_expected.csv")) {
+            if (line.startsWith("#") || line.startsWith("file,")) {
+                continue;
+            }
+            String[] f = line.split(",");
+            int hdu = Integer.parseInt(f[1]);
+            FitsImage fi = cache.get(f[0] + "#" + hdu);
+            if (fi == null) {
+                fi = FitsReader.read(golden(f[0]), new ReadOptions(hdu));
+                cache.put(f[0] + "#" + hdu, fi);
+            }
+            float got = fi.image().get(Integer.parseInt(f[2]), Integer.parseInt(f[4]), Integer.parseInt(f[3]));
+            if (f[5].equals("nan")) {
+                assertTrue(Float.isNaN(got), line);
+            } else {
+                assertEquals((float) Double.parseDouble(f[5]), got, 0f, line);
+            }
+            checked++;
+        }
+        assertEquals(84, checked, "values in fits_extra_expected.csv");
+        FitsImage first = FitsReader.read(golden("fits_ext_image.fits"));
+        assertEquals(1, first.hdu(), "the empty primary is skipped");
+        assertEquals("SCI", first.header().getString("EXTNAME").orElseThrow());
+        assertEquals(3, FitsReader.read(golden("fits_i8_rgb_cube.fits")).image().planes());
+        // |det CD| = (2.5e-4 deg)^2, so the scale is 2.5e-4 deg = 0.9 arcsec (Greisen & Calabretta 2002, §2.1).
+        assertEquals(0.9, Wcs.pixelScaleArcsec(cache.get("fits_i8_rgb_cube.fits#0").header()).getAsDouble(),
+                1e-12);
+    }
+
     @Test
     void writeThenReadIsBitExact() throws Exception {
         Image img = Image.create(5, 3);

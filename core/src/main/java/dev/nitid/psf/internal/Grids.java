@@ -9,6 +9,8 @@ import dev.nitid.image.Image;
 public final class Grids {
     /** Largest stamp side accepted (a 4097² float stamp is 64 MiB; larger PSFs are a caller mistake). */
     public static final int MAX_SIZE = 4097;
+    /** Largest oversampling accepted (mirrors {@code PsfModel.MAX_OVERSAMPLE}). */
+    public static final int MAX_OVERSAMPLE = 32;
 
     private Grids() {
     }
@@ -23,9 +25,9 @@ public final class Grids {
             throw new IllegalArgumentException("PSF size " + size + " must be odd, between 1 and " + MAX_SIZE
                     + " (try " + Math.max(1, Math.min(MAX_SIZE, size | 1)) + ")");
         }
-        if (oversample < 1 || oversample > 32) {
+        if (oversample < 1 || oversample > MAX_OVERSAMPLE) {
             throw new IllegalArgumentException("oversample " + oversample
-                    + " must be between 1 (point sampling) and 32");
+                    + " must be between 1 (point sampling) and " + MAX_OVERSAMPLE);
         }
         if ((long) size * oversample > 16_385) {
             throw new IllegalArgumentException("size " + size + " × oversample " + oversample

@@ -2,7 +2,8 @@ package dev.nitid.psf.internal;
 
 import dev.nitid.fft.FftSizes;
 import java.util.Arrays;
-import org.jtransforms.fft.DoubleFFT_2D;
+import java.util.stream.IntStream;
+import org.jtransforms.fft.DoubleFFT_1D;
 
 /**
  * The diffraction PSF as |FFT(pupil)|², sampled on a chosen fine detector grid.
@@ -30,13 +31,21 @@ import org.jtransforms.fft.DoubleFFT_2D;
  * By the shift theorem, multiplying the pupil by {@code exp(+2πi·s·n/N)} moves the pattern by +s
  * samples, so any offset is exact (no interpolation).
  *
- * <p>Stateless; each call allocates its own buffers and uses the JTransforms default thread count.
+ * <h2>Cost</h2>
+ * Only the rows crossing the pupil are transformed, then only the columns the stamp needs, and only the
+ * stamp's rows of those are kept (a pruned 2-D FFT); rows and columns are spread over the common
+ * fork-join pool in fixed chunks, each output sample written by one task, so the result is identical
+ * whatever the number of threads.
+ *
+ * <p>Stateless; each call allocates its own buffers.
  */
 public final class PupilEngine {
     /** Guard factor between the FFT field and the fine stamp, against the periodic wrap of the wings. */
     public static final double GUARD = 1.5;
     /** Largest FFT side used (a 8192² complex double grid is 1 GiB). */
     public static final int MAX_FFT = 8192;
+    /** Work is split into this many interleaved chunks (fixed, so results never depend on the thread count). */
+    static final int CHUNKS = 16;
     /** Coarsest computed sample, in λ/D, before the grid is refined (Nyquist for the PSF is 0.5). */
     public static final double MAX_SAMPLE_OVER_LAMBDA_D = 0.5;
 
@@ -101,32 +110,57 @@ public final class PupilEngine {
         double[] sumT = new double[nl];
         double[] sumT2 = new double[nl];
         double[] acc = new double[stamp * stamp];
-        double[] field = new double[2 * n * n];
-        DoubleFFT_2D fft = new DoubleFFT_2D(n, n);
         int[] kIndex = new int[stamp];
         for (int g = 0; g < stamp; g++) {
             kIndex[g] = Math.floorMod(m * (g - centreIndex), n);
         }
+        // Only the rows crossing the pupil are non-zero, and only the stamp's columns and rows of the
+        // spectrum are needed: a pruned 2-D FFT (rows, then the needed columns) does a fraction of the work.
+        int half = (int) Math.ceil(0.5 * n * sMax / m) + 1;
+        int lo = Math.max(0, n / 2 - half);
+        int hi = Math.min(n - 1, n / 2 + half);
+        int nRows = hi - lo + 1;
+        double[] rows = new double[2 * n * nRows];
+        int chunks = Math.max(1, Math.min(CHUNKS, stamp));
         for (int l = 0; l < nl; l++) {
             double sp = samplesPerLD[l] / m;
             double radius = 0.5 * n * sp;
             diam[l] = 2 * radius;
-            Arrays.fill(field, 0);
-            double[] sums = fillPupil(field, n, radius, aperture, waveScale[l], m * shiftX, m * shiftY);
+            Arrays.fill(rows, 0);
+            double[] sums = fillPupil(rows, lo, hi, n, radius, aperture, waveScale[l], m * shiftX, m * shiftY);
             sumT[l] = sums[0];
             sumT2[l] = sums[1];
-            fft.complexForward(field);
             double norm = (double) m * m * weights[l] / ((double) n * n * sums[0]);
-            for (int gy = 0; gy < stamp; gy++) {
-                int rowK = kIndex[gy] * n;
-                int rowOut = gy * stamp;
-                for (int gx = 0; gx < stamp; gx++) {
-                    int k = 2 * (rowK + kIndex[gx]);
-                    double re = field[k];
-                    double im = field[k + 1];
-                    acc[rowOut + gx] += norm * (re * re + im * im);
+            IntStream.range(0, chunks).parallel().forEach(ch -> {
+                DoubleFFT_1D fft = new DoubleFFT_1D(n);
+                double[] row = new double[2 * n];
+                for (int r = ch; r < nRows; r += chunks) {
+                    System.arraycopy(rows, 2 * n * r, row, 0, 2 * n);
+                    fft.complexForward(row);
+                    System.arraycopy(row, 0, rows, 2 * n * r, 2 * n);
                 }
-            }
+            });
+            IntStream.range(0, chunks).parallel().forEach(ch -> {
+                DoubleFFT_1D fft = new DoubleFFT_1D(n);
+                double[] col = new double[2 * n];
+                for (int gx = ch; gx < stamp; gx += chunks) {
+                    int kx = kIndex[gx];
+                    Arrays.fill(col, 0);
+                    for (int r = 0; r < nRows; r++) {
+                        int src = 2 * n * r + 2 * kx;
+                        col[2 * (lo + r)] = rows[src];
+                        col[2 * (lo + r) + 1] = rows[src + 1];
+                    }
+                    fft.complexForward(col);
+                    for (int gy = 0; gy < stamp; gy++) {
+                        int k = 2 * kIndex[gy];
+                        double re = col[k];
+                        double im = col[k + 1];
+                        // each (gx, gy) belongs to one task and wavelengths run in order: thread-count independent
+                        acc[gy * stamp + gx] += norm * (re * re + im * im);
+                    }
+                }
+            });
         }
         float[] fine = new float[stamp * stamp];
         for (int i = 0; i < fine.length; i++) {
@@ -136,15 +170,15 @@ public final class PupilEngine {
     }
 
     /**
-     * Writes the complex pupil field t·exp(iφ)·ramp into {@code field} (interleaved, n × n, centre at
-     * (n/2, n/2)) and returns {Σt, Σt²}.
+     * Writes the complex pupil field t·exp(iφ)·ramp into rows {@code lo..hi} of an n-wide grid (interleaved,
+     * row j stored at {@code (j − lo)·2n}, pupil centre at (n/2, n/2)) and returns {Σt, Σt²}.
      */
-    static double[] fillPupil(double[] field, int n, double radius, Aperture ap, double waveScale,
-                              double shiftX, double shiftY) {
+    static double[] fillPupil(double[] rows, int rowLo, int rowHi, int n, double radius, Aperture ap,
+                              double waveScale, double shiftX, double shiftY) {
         int c = n / 2;
         int half = (int) Math.ceil(radius) + 1;
-        int lo = Math.max(0, c - half);
-        int hi = Math.min(n - 1, c + half);
+        int lo = Math.max(rowLo, c - half);
+        int hi = Math.min(rowHi, c + half);
         double[] zc = ap.zernike();
         boolean aberrated = false;
         for (double v : zc) {
@@ -169,9 +203,9 @@ public final class PupilEngine {
                 if (aberrated) {
                     phase += 2 * Math.PI * waveScale * ZernikeKernel.wavefront(zc, x / radius, y / radius);
                 }
-                int k = 2 * (j * n + i);
-                field[k] = t * Math.cos(phase);
-                field[k + 1] = t * Math.sin(phase);
+                int k = 2 * ((j - rowLo) * n + i);
+                rows[k] = t * Math.cos(phase);
+                rows[k + 1] = t * Math.sin(phase);
             }
         }
         return new double[] {st, st2};

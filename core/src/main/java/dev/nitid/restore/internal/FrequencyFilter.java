@@ -3,11 +3,11 @@ package dev.nitid.restore.internal;
 import dev.nitid.fft.FftSizes;
 import dev.nitid.image.Image;
 import dev.nitid.restore.EdgeHandling;
-import org.jtransforms.fft.FloatFFT_2D;
+import dev.nitid.fft.RealFft2d;
 
 /**
- * Wiener and Tikhonov filters in the frequency domain on one image size with one PSF, on JTransforms
- * directly (kept behind this class so that moving to the project's real-to-complex plan is one change).
+ * Wiener and Tikhonov filters in the frequency domain on one image size with one PSF, on the project's
+ * real-to-complex plan {@link RealFft2d} (its packing and the PSF-centre rule are documented there).
  *
  * <p>The output is {@code x = F⁻¹[ H* Y / (|H|² + R) ]} where {@code H} is the unnormalised DFT of the PSF
  * zero-padded to the grid with its centre pixel {@code (⌊w/2⌋, ⌊h/2⌋)} rolled to index 0 (so H(0) = Σpsf),
@@ -24,9 +24,9 @@ import org.jtransforms.fft.FloatFFT_2D;
  * </ul>
  * For {@link EdgeHandling#PERIODIC} the grid is the frame; otherwise the frame is padded to a fast size with
  * the half-sample mirror of itself ({@link EdgeHandling#ZERO}: zeros), which removes the seams of the
- * circular model. Not thread-safe.
+ * circular model. Not thread-safe; close it to stop the FFT threads.
  */
-public final class FrequencyFilter {
+public final class FrequencyFilter implements AutoCloseable {
     /** Filter kind. */
     public enum Kind {
         /** Constant or estimated noise-to-signal ratio. */
@@ -42,8 +42,9 @@ public final class FrequencyFilter {
     private final int padX;
     private final int padY;
     private final EdgeHandling edges;
-    private final FloatFFT_2D fft;
+    private final RealFft2d fft;
     private final float[] h;
+    private final float[] grid;
     private final float[] work;
 
     /**
@@ -53,8 +54,9 @@ public final class FrequencyFilter {
      * @param height frame rows
      * @param psf    the PSF (input, copied into the transfer function)
      * @param edges  edge handling
+     * @param threads FFT threads
      */
-    public FrequencyFilter(int width, int height, Image psf, EdgeHandling edges) {
+    public FrequencyFilter(int width, int height, Image psf, EdgeHandling edges, int threads) {
         this.width = width;
         this.height = height;
         this.edges = edges;
@@ -69,20 +71,10 @@ public final class FrequencyFilter {
             padX = (gw - width) / 2;
             padY = (gh - height) / 2;
         }
-        fft = new FloatFFT_2D(gh, gw);
-        h = new float[2 * gw * gh];
-        int cx = psf.width() / 2;
-        int cy = psf.height() / 2;
-        float[] k = psf.plane(0);
-        for (int j = 0; j < psf.height(); j++) {
-            int yy = Math.floorMod(j - cy, gh);
-            for (int i = 0; i < psf.width(); i++) {
-                int xx = Math.floorMod(i - cx, gw);
-                h[2 * (yy * gw + xx)] += k[j * psf.width() + i];
-            }
-        }
-        fft.complexForward(h);
-        work = new float[2 * gw * gh];
+        fft = RealFft2d.create(gw, gh, threads);
+        h = fft.transferFunction(psf);
+        grid = new float[gw * gh];
+        work = fft.newSpectrum();
     }
 
     /**
@@ -95,7 +87,7 @@ public final class FrequencyFilter {
      * @param noiseSigma the frame's noise σ, used only when K is estimated
      */
     public void apply(float[] in, float[] out, Kind kind, double reg, double noiseSigma) {
-        java.util.Arrays.fill(work, 0f);
+        java.util.Arrays.fill(grid, 0f);
         for (int ye = 0; ye < gh; ye++) {
             int sy = map(ye - padY, height);
             if (sy < 0) {
@@ -104,23 +96,23 @@ public final class FrequencyFilter {
             for (int xe = 0; xe < gw; xe++) {
                 int sx = map(xe - padX, width);
                 if (sx >= 0) {
-                    work[2 * (ye * gw + xe)] = in[sy * width + sx];
+                    grid[ye * gw + xe] = in[sy * width + sx];
                 }
             }
         }
-        fft.complexForward(work);
+        fft.forward(grid, work);
+        final int sw = fft.spectrumWidth();
         double[] ringMean = null;
         double pn = 0;
-        int nb = 0;
         if (kind == Kind.WIENER && Double.isNaN(reg)) {
             pn = (double) gw * gh * noiseSigma * noiseSigma;
-            nb = (int) Math.ceil(Math.hypot(gw / 2.0, gh / 2.0)) + 2;
+            int nb = (int) Math.ceil(Math.hypot(gw / 2.0, gh / 2.0)) + 2;
             ringMean = new double[nb];
             long[] cnt = new long[nb];
             for (int v = 0; v < gh; v++) {
-                for (int u = 0; u < gw; u++) {
+                for (int u = 0; u < sw; u++) {
                     int b = ring(u, v);
-                    int i = 2 * (v * gw + u);
+                    int i = 2 * (v * sw + u);
                     ringMean[b] += (double) work[i] * work[i] + (double) work[i + 1] * work[i + 1];
                     cnt[b]++;
                 }
@@ -131,8 +123,8 @@ public final class FrequencyFilter {
         }
         for (int v = 0; v < gh; v++) {
             double cv = Math.cos(2 * Math.PI * v / gh);
-            for (int u = 0; u < gw; u++) {
-                int i = 2 * (v * gw + u);
+            for (int u = 0; u < sw; u++) {
+                int i = 2 * (v * sw + u);
                 double hr = h[i];
                 double hi = h[i + 1];
                 double h2 = hr * hr + hi * hi;
@@ -158,12 +150,15 @@ public final class FrequencyFilter {
                 }
             }
         }
-        fft.complexInverse(work, true);
+        fft.inverse(work, grid);
         for (int y = 0; y < height; y++) {
-            for (int x = 0; x < width; x++) {
-                out[y * width + x] = work[2 * ((y + padY) * gw + x + padX)];
-            }
+            System.arraycopy(grid, (y + padY) * gw + padX, out, y * width, width);
         }
+    }
+
+    @Override
+    public void close() {
+        fft.close();
     }
 
     private int ring(int u, int v) {

@@ -19,7 +19,7 @@ import java.util.function.BooleanSupplier;
 /**
  * The Richardson–Lucy family on one image size with one PSF: the convolver (with the PSF's transfer
  * function) and every scratch buffer are made in the constructor; {@link #run} allocates no image-sized
- * array. Not thread-safe: one plan per thread of work.
+ * array. Not thread-safe: one plan per thread of work. Close it to stop the convolver's threads.
  *
  * <p>The iteration, on a grid that is the frame itself or, for {@link EdgeHandling#EXTENDED_DOMAIN}, the
  * frame padded by the PSF's half-size:
@@ -28,7 +28,7 @@ import java.util.function.BooleanSupplier;
  * {@code ε} the denominator guard. Pixels where {@code s} is below {@link #MIN_SENSITIVITY} are left as
  * they are (no data constrain them).
  */
-public final class RlPlan {
+public final class RlPlan implements AutoCloseable {
     /** Below this {@code s = Kᵀw} a pixel is unconstrained and keeps its value (our choice: 1e-6 of a unit PSF). */
     public static final float MIN_SENSITIVITY = 1e-6f;
     /** Exponent N of the damped form (White 1994 uses 10; from memory). */
@@ -76,15 +76,18 @@ public final class RlPlan {
     private final int padX;
     private final int padY;
     private final Convolver conv;
+    /** The estimate on the grid: own storage on an extended grid, else the caller's output array. */
     private float[] o;
+    private final float[] ownO;
     private final float[] tmp;
     private float[] xPrev;
-    private final float[] yBuf;
+    private final float[] accBuf;
     private final float[] gBuf;
     /** Observed data on the grid, NaN where the weight is 0; null when the observed plane is used directly. */
     private final float[] dataGrid;
     private final float[] invS;
     private final Method method;
+    private final int threads;
 
     /**
      * Plans a restoration.
@@ -100,6 +103,7 @@ public final class RlPlan {
         this.width = width;
         this.height = height;
         this.method = method;
+        this.threads = threads;
         boolean ext = edges == EdgeHandling.EXTENDED_DOMAIN;
         this.padX = ext ? psf.width() / 2 : 0;
         this.padY = ext ? psf.height() / 2 : 0;
@@ -112,14 +116,21 @@ public final class RlPlan {
         };
         this.conv = Convolver.create(gw, gh, psf, new ConvolutionSettings(b, threads));
         int n = gw * gh;
-        this.o = new float[n];
+        // buffers: tmp always; the estimate lives in the caller's output unless the grid is larger; the
+        // accelerated form adds x_{k−1} and g_{k−1} (its prediction y is recomputed on the fly)
+        this.ownO = ext ? new float[n] : null;
         this.tmp = new float[n];
         boolean acc = method == Method.ACCELERATED_RL;
-        this.xPrev = acc ? new float[n] : null;
-        this.yBuf = acc ? new float[n] : null;
+        this.accBuf = acc ? new float[n] : null;
         this.gBuf = acc ? new float[n] : null;
         this.dataGrid = ext ? new float[n] : null;
         this.invS = ext ? new float[n] : null;
+    }
+
+    /** Stops the convolver's threads; the plan must not be used afterwards. */
+    @Override
+    public void close() {
+        conv.close();
     }
 
     /** @return grid columns (frame plus padding) */
@@ -163,19 +174,17 @@ public final class RlPlan {
                        Params p, Conventions conv0, Stopping stop, int plane, ProgressListener listener,
                        BooleanSupplier cancelled) {
         final int n = gw * gh;
-        final boolean needCopy = dataGrid != null || valid != null;
+        if (out.length != width * height || observed.length != width * height) {
+            throw new IllegalArgumentException("observed has " + observed.length + " and out " + out.length
+                    + " pixels but this plan is for " + width + "x" + height + ": build a plan for that size");
+        }
+        o = ownO != null ? ownO : out;
+        xPrev = accBuf;
         final float[] d;
-        float[] scratchData = null;
+        final boolean[] w;
         if (dataGrid != null) {
             d = dataGrid;
-        } else if (valid != null) {
-            // masked pixels are marked NaN in a private copy; tmp cannot hold it (it is the work buffer)
-            scratchData = new float[n];
-            d = scratchData;
-        } else {
-            d = observed;
-        }
-        if (needCopy) {
+            w = null;
             Arrays.fill(d, Float.NaN);
             for (int y = 0; y < height; y++) {
                 for (int x = 0; x < width; x++) {
@@ -185,6 +194,10 @@ public final class RlPlan {
                     d[(y + padY) * gw + x + padX] = ok ? v : Float.NaN;
                 }
             }
+        } else {
+            // the observed plane is read in place; masked pixels are found through `valid` and isFinite
+            d = observed;
+            w = valid;
         }
         // sensitivity s = Kᵀ w
         float[] inv = invS;
@@ -192,7 +205,7 @@ public final class RlPlan {
             boolean anyMasked = dataGrid != null;
             if (!anyMasked) {
                 for (int i = 0; i < n; i++) {
-                    if (Float.isNaN(d[i])) {
+                    if (masked(d, w, i)) {
                         anyMasked = true;
                         break;
                     }
@@ -203,7 +216,7 @@ public final class RlPlan {
                     inv = new float[n];
                 }
                 for (int i = 0; i < n; i++) {
-                    tmp[i] = Float.isNaN(d[i]) ? 0f : 1f;
+                    tmp[i] = masked(d, w, i) ? 0f : 1f;
                 }
                 conv.correlate(tmp, inv);
                 for (int i = 0; i < n; i++) {
@@ -221,7 +234,7 @@ public final class RlPlan {
             double sum = 0;
             long cnt = 0;
             for (int i = 0; i < n; i++) {
-                if (!Float.isNaN(d[i])) {
+                if (!masked(d, w, i)) {
                     sum += d[i];
                     cnt++;
                 }
@@ -238,12 +251,14 @@ public final class RlPlan {
             Arrays.fill(gBuf, 0f);
         }
 
+
         final double c = p.offset();
         final double g = p.gain();
         final double guard = conv0.guard();
+        final boolean logLik = stop.needsLikelihood();
         long nValid = 0;
         for (int i = 0; i < n; i++) {
-            if (!Float.isNaN(d[i])) {
+            if (!masked(d, w, i)) {
                 nValid++;
             }
         }
@@ -254,97 +269,125 @@ public final class RlPlan {
         double alphaNum = 0;
         int k = 0;
         StopReason reason = null;
-        double[] stats = new double[3];
         double[] lifted = floor == null ? null : new double[Math.max(1, floor.stars())];
-        while (reason == null) {
-            if (k >= stop.maxIterations()) {
-                reason = stop.rule() == StopRule.FIXED_COUNT ? StopReason.FIXED_COUNT_REACHED : StopReason.ITERATION_CAP;
-                break;
-            }
-            if (cancelled.getAsBoolean()) {
-                reason = StopReason.CANCELLED;
-                break;
-            }
-            float[] x = o;
-            float[] est = x;
-            if (method == Method.ACCELERATED_RL) {
-                double alpha = 0;
-                if (k >= 2 && gDotPrev > 0) {
-                    alpha = Math.max(0, Math.min(alphaNum / gDotPrev, ACCEL_MAX));
+        try (BlockPasses passes = new BlockPasses(gw, gh, threads)) {
+            final int nb = passes.blocks();
+            final double[] s1 = new double[nb];
+            final double[] s2 = new double[nb];
+            final double[] s3 = new double[nb];
+            final double[] s4 = new double[nb];
+            final float[] t = tmp;
+            final float[] sInv = inv;
+            while (reason == null) {
+                if (k >= stop.maxIterations()) {
+                    reason = stop.rule() == StopRule.FIXED_COUNT ? StopReason.FIXED_COUNT_REACHED : StopReason.ITERATION_CAP;
+                    break;
                 }
-                float a = (float) alpha;
-                for (int i = 0; i < n; i++) {
-                    float yv = x[i] + a * (x[i] - xPrev[i]);
-                    yBuf[i] = yv > 0 ? yv : 0f;
+                if (cancelled.getAsBoolean()) {
+                    reason = StopReason.CANCELLED;
+                    break;
                 }
-                est = yBuf;
-            }
-            // tmp = K est, then the ratio, then Kᵀ ratio
-            conv.convolve(est, tmp);
-            ratio(d, tmp, c, g, guard, p, stats);
-            double logL = stats[0];
-            double chi2 = stats[1] / Math.max(1, nValid);
-            conv.correlate(tmp, tmp);
-            if (method == Method.TV_RL && p.tvWeight() > 0) {
-                tvDenominator(est, tmp, inv, (float) p.tvWeight(), (float) p.tvEpsilon());
-            }
-            double change;
-            if (method == Method.ACCELERATED_RL) {
-                // x_{k+1} = est · Kᵀ(...) / s into xPrev (x_{k−1} is no longer needed); g_k = x_{k+1} − y
-                double num = 0;
-                double den = 0;
-                double diff = 0;
-                double tot = 0;
-                for (int i = 0; i < n; i++) {
-                    float yv = est[i];
-                    float nv = update(yv, tmp[i], inv, i);
-                    float gv = nv - yv;
-                    num += (double) gv * gBuf[i];
-                    den += (double) gBuf[i] * gBuf[i];
-                    gBuf[i] = gv;
-                    diff += Math.abs(nv - x[i]);
-                    tot += Math.abs(nv);
-                    xPrev[i] = nv;
-                }
-                alphaNum = num;
-                gDotPrev = den;
-                // swap roles: o now holds x_{k+1}, xPrev holds x_k
-                float[] swap = o;
-                o = xPrev;
-                xPrev = swap;
-                change = tot > 0 ? diff / tot : 0;
-            } else {
-                double diff = 0;
-                double tot = 0;
-                for (int i = 0; i < n; i++) {
-                    float nv = update(x[i], tmp[i], inv, i);
-                    diff += Math.abs(nv - x[i]);
-                    tot += Math.abs(nv);
-                    x[i] = nv;
-                }
-                change = tot > 0 ? diff / tot : 0;
-            }
-            if (floor != null) {
-                floor.apply(o, lifted);
-            }
-            k++;
-            IterationRecord rec = new IterationRecord(plane, k, logL, chi2, change, System.nanoTime() - t0);
-            history.add(rec);
-            listener.onIteration(rec);
-            double gainPerPixel = Double.isNaN(prevL) ? Double.POSITIVE_INFINITY : (logL - prevL) / Math.max(1, nValid);
-            prevL = logL;
-            switch (stop.rule()) {
-                case FIXED_COUNT -> { }
-                case CHI_SQUARE -> {
-                    if (chi2 <= stop.threshold()) {
-                        reason = StopReason.CHI_SQUARE_REACHED;
-                    } else if (gainPerPixel < stop.minGain()) {
-                        reason = StopReason.LIKELIHOOD_CONVERGED;
+                final float[] x = o;
+                final float[] xp = xPrev;
+                final float a;
+                if (method == Method.ACCELERATED_RL) {
+                    double alpha = 0;
+                    if (k >= 2 && gDotPrev > 0) {
+                        alpha = Math.max(0, Math.min(alphaNum / gDotPrev, ACCEL_MAX));
                     }
+                    a = (float) alpha;
+                    // tmp = y = max(0, x + α (x − x_{k−1}))
+                    passes.run((blk, from, to) -> {
+                        for (int i = from; i < to; i++) {
+                            t[i] = predict(x[i], xp[i], a);
+                        }
+                    });
+                    conv.convolve(t, t);
+                } else {
+                    a = 0f;
+                    conv.convolve(x, t);
                 }
-                case LIKELIHOOD_GAIN -> {
-                    if (gainPerPixel < stop.threshold()) {
-                        reason = StopReason.LIKELIHOOD_CONVERGED;
+                // tmp = K est, then the ratio, then Kᵀ ratio
+                passes.run((blk, from, to) -> ratio(d, w, t, c, g, guard, p, logLik, from, to, s1, s2, blk));
+                double logL = logLik ? g * BlockPasses.sum(s1) : Double.NaN;
+                double chi2 = BlockPasses.sum(s2) / Math.max(1, nValid);
+                conv.correlate(t, t);
+                if (method == Method.TV_RL && p.tvWeight() > 0) {
+                    final float lam = (float) p.tvWeight();
+                    final float eps = (float) p.tvEpsilon();
+                    passes.run((blk, from, to) -> tvDenominator(x, t, sInv, lam, eps, from / gw, to / gw));
+                }
+                double change;
+                if (method == Method.ACCELERATED_RL) {
+                    // x_{k+1} = y · Kᵀ(...) / s goes into xPrev's storage (x_{k−1} is read first); g_k = x_{k+1} − y
+                    final float[] gb = gBuf;
+                    passes.run((blk, from, to) -> {
+                        double num = 0;
+                        double den = 0;
+                        double diff = 0;
+                        double tot = 0;
+                        for (int i = from; i < to; i++) {
+                            float xv = x[i];
+                            float yv = predict(xv, xp[i], a);
+                            float nv = update(yv, t[i], sInv, i);
+                            float gv = nv - yv;
+                            num += (double) gv * gb[i];
+                            den += (double) gb[i] * gb[i];
+                            gb[i] = gv;
+                            diff += Math.abs(nv - xv);
+                            tot += Math.abs(nv);
+                            xp[i] = nv;
+                        }
+                        s1[blk] = num;
+                        s2[blk] = den;
+                        s3[blk] = diff;
+                        s4[blk] = tot;
+                    });
+                    alphaNum = BlockPasses.sum(s1);
+                    gDotPrev = BlockPasses.sum(s2);
+                    float[] swap = o;
+                    o = xPrev;
+                    xPrev = swap;
+                } else {
+                    passes.run((blk, from, to) -> {
+                        double diff = 0;
+                        double tot = 0;
+                        for (int i = from; i < to; i++) {
+                            float nv = update(x[i], t[i], sInv, i);
+                            diff += Math.abs(nv - x[i]);
+                            tot += Math.abs(nv);
+                            x[i] = nv;
+                        }
+                        s3[blk] = diff;
+                        s4[blk] = tot;
+                    });
+                }
+                double tot = BlockPasses.sum(s4);
+                change = tot > 0 ? BlockPasses.sum(s3) / tot : 0;
+                if (floor != null) {
+                    floor.apply(o, lifted);
+                }
+                k++;
+                IterationRecord rec = new IterationRecord(plane, k, logL, chi2, change, System.nanoTime() - t0);
+                history.add(rec);
+                listener.onIteration(rec);
+                double gainPerPixel = Double.isNaN(prevL) ? Double.POSITIVE_INFINITY : (logL - prevL) / Math.max(1, nValid);
+                prevL = logL;
+                switch (stop.rule()) {
+                    case FIXED_COUNT -> { }
+                    case CHI_SQUARE -> {
+                        if (chi2 <= stop.threshold()) {
+                            reason = StopReason.CHI_SQUARE_REACHED;
+                        } else if (change < stop.minChange()) {
+                            reason = StopReason.STALLED;
+                        }
+                    }
+                    case LIKELIHOOD_GAIN -> {
+                        if (gainPerPixel < stop.threshold()) {
+                            reason = StopReason.LIKELIHOOD_CONVERGED;
+                        } else if (change < stop.minChange()) {
+                            reason = StopReason.STALLED;
+                        }
                     }
                 }
             }
@@ -354,14 +397,27 @@ public final class RlPlan {
             floor.takeBack(o, lifted);
         }
         long nanos = System.nanoTime() - t0;
-        for (int y = 0; y < height; y++) {
-            System.arraycopy(o, (y + padY) * gw + padX, out, y * width, width);
+        if (o != out) {
+            for (int y = 0; y < height; y++) {
+                System.arraycopy(o, (y + padY) * gw + padX, out, y * width, width);
+            }
         }
+        o = null;
+        xPrev = null;
         return new Outcome(k, reason, history, nanos);
     }
 
     /** Largest extrapolation factor of the accelerated form (Biggs &amp; Andrews clip α below 1). */
     public static final double ACCEL_MAX = 0.999;
+
+    private static float predict(float x, float prev, float a) {
+        float y = x + a * (x - prev);
+        return y > 0 ? y : 0f;
+    }
+
+    private static boolean masked(float[] d, boolean[] w, int i) {
+        return !Float.isFinite(d[i]) || (w != null && !w[i]);
+    }
 
     private static float update(float est, float back, float[] inv, int i) {
         if (inv == null) {
@@ -372,17 +428,19 @@ public final class RlPlan {
     }
 
     /**
-     * Replaces {@code tmp} (holding {@code K o}) by the ratio; stats[0] = log-likelihood, stats[1] = χ² sum.
+     * Replaces {@code tmp} (holding {@code K o}) by the ratio on {@code [from, to)}; stores the block's
+     * log-likelihood (in data units, before the gain) and χ² sums.
      */
-    private static void ratio(float[] d, float[] tmp, double c, double g, double guard, Params p, double[] stats) {
+    private static void ratio(float[] d, boolean[] w, float[] tmp, double c, double g, double guard, Params p,
+                              boolean logLik, int from, int to, double[] sumL, double[] sumChi, int blk) {
         double logL = 0;
         double chi2 = 0;
         final boolean damped = p.method() == Method.DAMPED_RL;
         final double t2 = p.dampingSigma() * p.dampingSigma();
         final double minVar = 1.0 / g;
-        for (int i = 0; i < d.length; i++) {
+        for (int i = from; i < to; i++) {
             float dv = d[i];
-            if (Float.isNaN(dv)) {
+            if (!Float.isFinite(dv) || (w != null && !w[i])) {
                 tmp[i] = 0f;
                 continue;
             }
@@ -390,10 +448,8 @@ public final class RlPlan {
             double data = Math.max(0, (double) dv + c);
             double r = dv - tmp[i];
             chi2 += r * r * g / Math.max(model, minVar);
-            if (model > 0) {
-                logL += data * Math.log(model) - model;
-            } else {
-                logL += -model;
+            if (logLik) {
+                logL += model > 0 ? data * Math.log(model) - model : -model;
             }
             double den = model + guard;
             if (!damped) {
@@ -412,15 +468,15 @@ public final class RlPlan {
                 tmp[i] = (float) (1.0 + un * (DAMPING_POWER - (DAMPING_POWER - 1) * u) * (dd - bb) / bb);
             }
         }
-        stats[0] = g * logL;
-        stats[1] = chi2;
+        sumL[blk] = logL;
+        sumChi[blk] = chi2;
     }
 
     /** tmp ← tmp / max(s − λ div(∇o/|∇o|), TV_MIN_DENOMINATOR·s), scaled so that the update divides by s. */
-    private void tvDenominator(float[] est, float[] t, float[] inv, float lambda, float eps) {
+    private void tvDenominator(float[] est, float[] t, float[] inv, float lambda, float eps, int y0, int y1) {
         // forward differences for ∇, backward for div (Rudin, Osher & Fatemi 1992 discretisation; common practice)
         float e2 = eps * eps;
-        for (int y = 0; y < gh; y++) {
+        for (int y = y0; y < y1; y++) {
             for (int x = 0; x < gw; x++) {
                 int i = y * gw + x;
                 float div = nx(est, x, y, e2) - (x > 0 ? nx(est, x - 1, y, e2) : 0f)

@@ -1,9 +1,14 @@
 package dev.nitid.synth.internal;
 
+import dev.nitid.psf.GaussianPsf;
+import dev.nitid.psf.MoffatPsf;
+import dev.nitid.psf.PsfModel;
+
 /**
  * Analytic PSF profiles integrated over square pixels by sub-sampling — the one place where the synthetic
- * field generator draws a PSF model. When {@code dev.nitid.psf} offers a model renderer this method is
- * the single switch point.
+ * field generator draws an analytic PSF. It delegates to {@code dev.nitid.psf}'s {@link MoffatPsf} and
+ * {@link GaussianPsf}, whose rendering rule (centre pixel {@code ⌊size/2⌋}, offsets, sub-pixel means, unit
+ * sum) is the one this package documents.
  *
  * <ul>
  *   <li>Gaussian: {@code I(r) ∝ exp(−r²/2σ²)}, {@code FWHM = 2√(2 ln 2) σ} (any statistics handbook).</li>
@@ -34,31 +39,8 @@ public final class AnalyticProfiles {
      */
     public static void render(boolean moffat, double fwhm, double beta, int size, int oversample,
                               double dx, double dy, float[] out) {
-        int c = size / 2;
-        double alpha = fwhm / (2 * Math.sqrt(Math.pow(2, 1 / beta) - 1));
-        double sigma = fwhm / GAUSS_FWHM_PER_SIGMA;
-        double invA2 = 1 / (alpha * alpha);
-        double inv2s2 = 1 / (2 * sigma * sigma);
-        double step = 1.0 / oversample;
-        double total = 0;
-        for (int j = 0; j < size; j++) {
-            for (int i = 0; i < size; i++) {
-                double acc = 0;
-                for (int sj = 0; sj < oversample; sj++) {
-                    double y = j - c - dy - 0.5 + (sj + 0.5) * step;
-                    for (int si = 0; si < oversample; si++) {
-                        double x = i - c - dx - 0.5 + (si + 0.5) * step;
-                        double r2 = x * x + y * y;
-                        acc += moffat ? Math.exp(-beta * Math.log1p(r2 * invA2)) : Math.exp(-r2 * inv2s2);
-                    }
-                }
-                out[j * size + i] = (float) acc;
-                total += acc;
-            }
-        }
-        float norm = (float) (1 / total);
-        for (int k = 0; k < size * size; k++) {
-            out[k] *= norm;
-        }
+        PsfModel model = moffat ? MoffatPsf.ofFwhm(fwhm, beta) : GaussianPsf.ofFwhm(fwhm);
+        float[] k = model.render(size, oversample, dx, dy).plane(0);
+        System.arraycopy(k, 0, out, 0, k.length);
     }
 }

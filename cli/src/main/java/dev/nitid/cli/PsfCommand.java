@@ -1,0 +1,208 @@
+package dev.nitid.cli;
+
+import dev.nitid.fits.FitsException;
+import dev.nitid.fits.FitsHeader;
+import dev.nitid.fits.FitsWriter;
+import dev.nitid.fits.WriteOptions;
+import dev.nitid.image.Image;
+import dev.nitid.psf.PsfFigures;
+import dev.nitid.psf.PsfModel;
+import dev.nitid.psf.PsfParameter;
+import dev.nitid.psf.PsfPreview;
+import java.awt.image.BufferedImage;
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ForkJoinPool;
+import javax.imageio.ImageIO;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
+
+/**
+ * {@code nitid psf --model gaussian|moffat|airy … -o PSF.fits [--preview PSF.png]}: builds a PSF from a
+ * model, writes it as a float32 FITS image with every parameter and derived figure in the header, and
+ * optionally a preview picture.
+ */
+@Command(name = "psf", mixinStandardHelpOptions = true, sortOptions = false,
+        description = {"Builds a PSF from a model and writes it as FITS: a Gaussian or Moffat of",
+            "given FWHM, or the diffraction pattern of a telescope (aperture, central",
+            "obstruction, spider vanes, Zernike aberrations, one wavelength or a band),",
+            "optionally blurred by seeing and tracking jitter. The PSF is odd-sized,",
+            "centred on its middle pixel, pixel-integrated and sums to 1.",
+            "",
+            "Examples:",
+            "  nitid psf --model moffat --fwhm 3.2 --beta 3 -o moffat.fits",
+            "  nitid psf --model airy --aperture 200 --obstruction 0.33 --vanes 4 \\",
+            "      --vane-width 2 --focal-length 1000 --pixel-size 3.76 --band 500-600 \\",
+            "      --seeing 2 -o scope.fits --preview scope.png",
+            ""})
+public final class PsfCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Mixin
+    CommonOptions common;
+
+    @Mixin
+    PsfOptions psf;
+
+    @Option(names = {"-o", "--output"}, paramLabel = "PSF.fits", required = true,
+            description = "FITS file to write (float32).")
+    Path output;
+
+    @Option(names = "--preview", paramLabel = "PSF.png",
+            description = "Also draw the PSF on a log stretch beside its radial profile and encircled energy (PNG).")
+    Path preview;
+
+    @Option(names = "--overwrite", description = "Replace existing output files.")
+    boolean overwrite;
+
+    @Override
+    public Integer call() {
+        return Failures.run(spec, common, () -> {
+            PsfModel model = psf.toModel();
+            int size = psf.size();
+            int os = psf.oversample();
+            if (preview != null && !overwrite && Files.exists(preview)) {
+                throw new FitsException(FitsException.Kind.OUTPUT_EXISTS, preview, -1, null,
+                        "the preview file exists (add --overwrite to replace it, or choose another name)");
+            }
+            long t0 = System.nanoTime();
+            Image image = render(model, size, os, common.threads());
+            PsfFigures figures = PsfFigures.of(image, model);
+            double seconds = (System.nanoTime() - t0) / 1e9;
+            FitsHeader header = header(model, figures, size, os)
+                    .withHistory("command: nitid psf " + String.join(" ", spec.commandLine().getParseResult().originalArgs()));
+            FitsWriter.write(output, image, header, WriteOptions.defaults().withOverwrite(overwrite));
+            if (preview != null) {
+                writePreview(model, image, figures);
+            }
+            PrintWriter err = spec.commandLine().getErr();
+            for (String w : figures.warnings()) {
+                if (!common.quiet()) {
+                    err.println("nitid: warning: " + w);
+                }
+            }
+            err.flush();
+            if (!common.quiet()) {
+                PrintWriter out = spec.commandLine().getOut();
+                out.printf(Locale.ROOT, "wrote %s: %s PSF, %d x %d px, oversample %d, %.2f s%n", output,
+                        model.family(), size, size, os, seconds);
+                out.println("  " + PsfPreview.summaryLine(figures));
+                if (preview != null) {
+                    out.println("wrote " + preview);
+                }
+                out.flush();
+            }
+            return ExitCode.OK;
+        });
+    }
+
+    /** Renders inside a pool of {@code threads} workers (the pupil FFT spreads over the pool it runs in). */
+    static Image render(PsfModel model, int size, int os, int threads) throws InterruptedException {
+        ForkJoinPool pool = new ForkJoinPool(threads);
+        try {
+            return pool.submit(() -> model.render(size, os, 0, 0)).get();
+        } catch (ExecutionException e) {
+            if (e.getCause() instanceof RuntimeException r) {
+                throw r;
+            }
+            if (e.getCause() instanceof Error err) {
+                throw err;
+            }
+            throw new IllegalStateException(e.getCause());
+        } finally {
+            pool.shutdown();
+        }
+    }
+
+    private void writePreview(PsfModel model, Image image, PsfFigures figures) throws FitsException {
+        BufferedImage pic = PsfPreview.draw(image, figures, title(model));
+        try {
+            Path parent = preview.toAbsolutePath().getParent();
+            if (parent != null && !Files.isDirectory(parent)) {
+                throw new FitsException(FitsException.Kind.CANNOT_CREATE, preview, -1, null,
+                        "the folder does not exist (create it or choose another path)");
+            }
+            if (!ImageIO.write(pic, "png", preview.toFile())) {
+                throw new IOException("no PNG writer in this Java runtime");
+            }
+        } catch (IOException e) {
+            throw new FitsException(FitsException.Kind.WRITE_FAILED, preview, -1, null,
+                    "cannot write the preview: " + e.getMessage() + " (check the path and free space)", e);
+        }
+    }
+
+    static String title(PsfModel model) {
+        StringBuilder sb = new StringBuilder(model.family());
+        int n = 0;
+        for (PsfParameter p : model.parameters()) {
+            if (p.key().equals("PSFMODEL") || n >= 7) {
+                continue;
+            }
+            sb.append(n == 0 ? ": " : ", ").append(p.key().toLowerCase(Locale.ROOT)).append(' ').append(format(p.value()));
+            n++;
+        }
+        return sb.toString();
+    }
+
+    private static String format(Object v) {
+        return v instanceof Double d ? String.format(Locale.ROOT, "%.4g", d) : String.valueOf(v);
+    }
+
+    /** Every model parameter, the rendering settings, the derived figures and HISTORY (keywords in notes/psf.md). */
+    static FitsHeader header(PsfModel model, PsfFigures f, int size, int os) {
+        FitsHeader h = FitsHeader.empty();
+        for (PsfParameter p : model.parameters()) {
+            Object v = p.value();
+            if (v instanceof Double d) {
+                h = h.with(p.key(), d, p.comment());
+            } else if (v instanceof Long l) {
+                h = h.with(p.key(), l, p.comment());
+            } else if (v instanceof Boolean b) {
+                h = h.with(p.key(), b, p.comment());
+            } else {
+                h = h.with(p.key(), (String) v, p.comment());
+            }
+        }
+        h = h.with("PSFSIZE", (long) size, "[px] PSF image side (odd; centre pixel is the PSF centre)")
+                .with("OVERSAMP", (long) os, "sub-pixels per pixel per axis (1 = point sampled)")
+                .with("PSFSUM", 1.0, "the image is normalised to sum 1");
+        if (Double.isFinite(f.fwhmPx())) {
+            h = h.with("FWHM", f.fwhmPx(), "[px] FWHM measured on this image")
+                    .with("FWHMMAJ", f.fwhmMajorPx(), "[px] measured major-axis FWHM")
+                    .with("FWHMMIN", f.fwhmMinorPx(), "[px] measured minor-axis FWHM")
+                    .with("FWHMANG", f.angleDeg(), "[deg] measured major-axis angle from +x to +y");
+        }
+        if (Double.isFinite(f.r50Px())) {
+            h = h.with("R50", f.r50Px(), "[px] radius holding 50% of the flux");
+        }
+        if (Double.isFinite(f.r80Px())) {
+            h = h.with("R80", f.r80Px(), "[px] radius holding 80% of the flux");
+        }
+        if (f.fwhmArcsec().isPresent() && Double.isFinite(f.fwhmPx())) {
+            h = h.with("FWHMAS", f.fwhmArcsec().getAsDouble(), "[arcsec] measured FWHM");
+        }
+        if (f.plateScaleArcsec().isPresent()) {
+            h = h.with("PLTSCALE", f.plateScaleArcsec().getAsDouble(), "[arcsec/px] 206.264806*PIXSIZE/FOCALLEN");
+        }
+        if (f.strehl().isPresent()) {
+            h = h.with("STREHL", f.strehl().getAsDouble(), "optical Strehl ratio (aberrations, no seeing)");
+        }
+        if (f.pixelOverNyquist().isPresent()) {
+            h = h.with("NYQRATIO", f.pixelOverNyquist().getAsDouble(), "pixel / Nyquist pixel lambda_min/(2D)")
+                    .with("UNDERSMP", f.undersampled(), "T if the pixel exceeds the Nyquist pixel");
+        }
+        h = h.withHistory("nitid " + NitidCommand.toolVersion() + " psf: " + title(model))
+                .withHistory("PSF rendered on " + size + "x" + size + " px, " + os + "x" + os
+                        + " sub-pixels per pixel, normalised to sum 1");
+        return h;
+    }
+}

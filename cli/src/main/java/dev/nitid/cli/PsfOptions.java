@@ -1,0 +1,302 @@
+package dev.nitid.cli;
+
+import dev.nitid.psf.GaussianPsf;
+import dev.nitid.psf.MoffatPsf;
+import dev.nitid.psf.PsfModel;
+import dev.nitid.psf.Psfs;
+import dev.nitid.psf.PupilPsf;
+import dev.nitid.psf.Seeing;
+import dev.nitid.psf.Spectrum;
+import dev.nitid.psf.Zernike;
+import java.util.Locale;
+import java.util.Map;
+import java.util.TreeMap;
+import picocli.CommandLine.Option;
+
+/**
+ * The PSF model options shared by {@code nitid psf}, {@code nitid sharpen} and {@code nitid simulate}
+ * (mix in with {@code @Mixin PsfOptions psf;}). Parsing only: {@link #toModel()} builds the core model and
+ * every rule about which options go together lives there, in one place.
+ */
+public final class PsfOptions {
+
+    /** PSF model families selectable with {@code --model}. */
+    public enum Family {
+        /** Elliptical Gaussian: {@code --fwhm}, optional {@code --ellipticity}, {@code --angle}. */
+        gaussian,
+        /** Elliptical Moffat: {@code --fwhm}, {@code --beta}, optional {@code --ellipticity}, {@code --angle}. */
+        moffat,
+        /** Diffraction from the pupil: {@code --aperture}, {@code --focal-length}, {@code --pixel-size}, … */
+        airy
+    }
+
+    /** Default Moffat β when {@code --beta} is not given: 4.765, Kolmogorov seeing (Trujillo et al. 2001). */
+    static final double DEFAULT_BETA = MoffatPsf.KOLMOGOROV_BETA;
+    /** Default wavelength for {@code --model airy} without {@code --wavelength} or {@code --band}, nm. */
+    static final double DEFAULT_WAVELENGTH_NM = 550;
+    /** Largest automatic stamp side, pixels. */
+    static final int MAX_AUTO_SIZE = 1025;
+
+    @Option(names = "--model", paramLabel = "MODEL",
+            description = "PSF model: ${COMPLETION-CANDIDATES}.")
+    Family model;
+
+    @Option(names = "--fwhm", paramLabel = "PX",
+            description = "FWHM in pixels (gaussian, moffat); the major-axis FWHM when --ellipticity is given.")
+    Double fwhm;
+
+    @Option(names = "--beta", paramLabel = "B",
+            description = "Moffat power index beta > 1 (default 4.765, Kolmogorov seeing).")
+    Double beta;
+
+    @Option(names = "--ellipticity", paramLabel = "E",
+            description = "1 - minor/major axis, 0 <= E < 1 (gaussian, moffat; default 0).")
+    Double ellipticity;
+
+    @Option(names = "--angle", paramLabel = "DEG",
+            description = "Major-axis angle in degrees from +x towards +y (gaussian, moffat; default 0).")
+    Double angle;
+
+    @Option(names = "--aperture", paramLabel = "MM", description = "Aperture diameter in mm (airy).")
+    Double aperture;
+
+    @Option(names = "--obstruction", paramLabel = "RATIO",
+            description = "Central obstruction diameter over aperture diameter, 0 <= ratio < 1 (airy; default 0).")
+    Double obstruction;
+
+    @Option(names = "--vanes", paramLabel = "N", description = "Number of spider vanes (airy; default 0).")
+    Integer vanes;
+
+    @Option(names = "--vane-width", paramLabel = "MM", description = "Width of each vane in mm (airy, with --vanes).")
+    Double vaneWidth;
+
+    @Option(names = "--vane-angle", paramLabel = "DEG",
+            description = "Angle of the first vane in degrees from +x towards +y (airy; default 0).")
+    Double vaneAngle;
+
+    @Option(names = "--focal-length", paramLabel = "MM",
+            description = "Focal length in mm (airy; with --pixel-size it sets the plate scale for --seeing).")
+    Double focalLength;
+
+    @Option(names = "--pixel-size", paramLabel = "UM", description = "Detector pixel pitch in micrometres.")
+    Double pixelSize;
+
+    @Option(names = "--wavelength", paramLabel = "NM",
+            description = "Wavelength in nm (airy; default 550 unless --band is given).")
+    Double wavelength;
+
+    @Option(names = "--band", paramLabel = "NM-NM",
+            description = "Flat band in nm, e.g. 500-600, summed over at least 5 wavelengths with equal photon weights (airy).")
+    String band;
+
+    @Option(names = "--zernike", paramLabel = "J=W,...",
+            description = "Aberrations as Noll index = waves RMS, e.g. 4=0.10,6=0.05 (4 defocus, 5-6 astigmatism, "
+                    + "7-8 coma, 9-10 trefoil, 11 spherical; airy).")
+    String zernike;
+
+    @Option(names = "--seeing", paramLabel = "ARCSEC",
+            description = "Seeing FWHM in arcsec convolved onto the model (needs --focal-length and --pixel-size).")
+    Double seeing;
+
+    @Option(names = "--seeing-profile", paramLabel = "SHAPE",
+            description = "Seeing profile: moffat (beta 4.765, default) or gaussian.")
+    String seeingProfile;
+
+    @Option(names = "--jitter", paramLabel = "PX", description = "Tracking jitter, Gaussian sigma in pixels.")
+    Double jitter;
+
+    @Option(names = "--size", paramLabel = "PX",
+            description = "PSF image side in pixels, odd (default: chosen from the model to hold its wings).")
+    Integer size;
+
+    @Option(names = "--oversample", paramLabel = "N",
+            description = "Sub-pixels per pixel per axis for pixel integration; 1 = point sampling (default 5).")
+    Integer oversample;
+
+    /** @return true if {@code --model} was given */
+    public boolean given() {
+        return model != null;
+    }
+
+    /** @return the model family, or null */
+    public Family family() {
+        return model;
+    }
+
+    /** @return the oversampling, {@link PsfModel#DEFAULT_OVERSAMPLE} unless given */
+    public int oversample() {
+        int os = oversample == null ? PsfModel.DEFAULT_OVERSAMPLE : oversample;
+        if (os < 1 || os > PsfModel.MAX_OVERSAMPLE) {
+            throw new IllegalArgumentException("--oversample is " + os + ", but it must be between 1 (point sampling) and "
+                    + PsfModel.MAX_OVERSAMPLE + " (5 is plenty for most PSFs)");
+        }
+        return os;
+    }
+
+    /**
+     * Builds the model the options describe.
+     *
+     * @return the model, with seeing and jitter convolved on when given
+     * @throws IllegalArgumentException naming the option that is missing, out of range or does not apply
+     */
+    public PsfModel toModel() {
+        if (model == null) {
+            throw new IllegalArgumentException("no PSF model given (add --model gaussian, moffat or airy)");
+        }
+        PsfModel base = switch (model) {
+            case gaussian -> {
+                refuse("--beta", beta, "moffat");
+                refuseOptics();
+                double f = need("--fwhm", fwhm, "the FWHM in pixels, e.g. --fwhm 3");
+                yield GaussianPsf.ofFwhmEllipticity(f, orZero(ellipticity), orZero(angle));
+            }
+            case moffat -> {
+                refuseOptics();
+                double f = need("--fwhm", fwhm, "the FWHM in pixels, e.g. --fwhm 3");
+                double b = beta == null ? DEFAULT_BETA : beta;
+                yield MoffatPsf.ofFwhmEllipticity(f, orZero(ellipticity), b, orZero(angle));
+            }
+            case airy -> {
+                refuse("--fwhm", fwhm, "gaussian or moffat");
+                refuse("--beta", beta, "moffat");
+                refuse("--ellipticity", ellipticity, "gaussian or moffat");
+                refuse("--angle", angle, "gaussian or moffat (use --vane-angle for the spider)");
+                double d = need("--aperture", aperture, "the aperture diameter in mm, e.g. --aperture 200");
+                double f = need("--focal-length", focalLength, "the focal length in mm, e.g. --focal-length 1000");
+                double p = need("--pixel-size", pixelSize, "the pixel pitch in micrometres, e.g. --pixel-size 3.76");
+                int n = vanes == null ? 0 : vanes;
+                if (n > 0 && vaneWidth == null) {
+                    throw new IllegalArgumentException("--vanes " + n + " needs --vane-width (the width of one vane in mm)");
+                }
+                yield new PupilPsf(d, obstruction == null ? 0 : obstruction, n, n > 0 ? vaneWidth : 0,
+                        vaneAngle == null ? 0 : vaneAngle, f, p, spectrum(), parseZernike(zernike),
+                        PupilPsf.DEFAULT_PUPIL_SAMPLES);
+            }
+        };
+        double scale = Double.NaN;
+        if (focalLength != null && pixelSize != null) {
+            scale = Psfs.plateScaleArcsec(pixelSize, focalLength);
+        }
+        Seeing s = null;
+        if (seeing != null) {
+            if (Double.isNaN(scale)) {
+                throw new IllegalArgumentException("--seeing is in arcsec, so it needs the plate scale: "
+                        + "add --focal-length (mm) and --pixel-size (micrometres)");
+            }
+            String prof = seeingProfile == null ? "moffat" : seeingProfile.toLowerCase(Locale.ROOT);
+            s = switch (prof) {
+                case "moffat" -> Seeing.moffat(seeing);
+                case "gaussian" -> Seeing.gaussian(seeing);
+                default -> throw new IllegalArgumentException("--seeing-profile is '" + seeingProfile
+                        + "' (use moffat or gaussian)");
+            };
+        } else if (seeingProfile != null) {
+            throw new IllegalArgumentException("--seeing-profile needs --seeing (the seeing FWHM in arcsec)");
+        }
+        return Psfs.withSeeingAndJitter(base, s, jitter == null ? 0 : jitter, scale);
+    }
+
+    /**
+     * The stamp side: {@code --size}, or one chosen to hold the model's wings: ±3 FWHM for a Gaussian,
+     * ±8 FWHM for a Moffat, ±12 λ/D for a pupil model at the longest wavelength, widened by the seeing and
+     * jitter, odd, at most {@value #MAX_AUTO_SIZE} (project choice).
+     *
+     * @return an odd side in pixels
+     */
+    public int size() {
+        if (size != null) {
+            if (size < 1 || size % 2 == 0) {
+                throw new IllegalArgumentException("--size is " + size
+                        + ", but the PSF side must be odd so its centre is a pixel (try " + Math.max(1, size | 1) + ")");
+            }
+            return size;
+        }
+        toModel(); // validates the options the automatic size depends on
+        double half = switch (model) {
+            case gaussian -> 3 * fwhm;
+            case moffat -> 8 * fwhm;
+            case airy -> {
+                Spectrum sp = spectrum();
+                yield 12 * sp.longestNm() * 1e-3 * focalLength / aperture / pixelSize;
+            }
+        };
+        if (seeing != null && focalLength != null && pixelSize != null) {
+            half += 4 * seeing / Psfs.plateScaleArcsec(pixelSize, focalLength);
+        }
+        if (jitter != null) {
+            half += 3 * jitter;
+        }
+        int h = (int) Math.min(MAX_AUTO_SIZE / 2, Math.max(3, Math.ceil(half)));
+        return 2 * h + 1;
+    }
+
+    Spectrum spectrum() {
+        if (band != null && wavelength != null) {
+            throw new IllegalArgumentException("--wavelength and --band both given (give one: a single wavelength or a band)");
+        }
+        if (band != null) {
+            String[] parts = band.trim().split("-");
+            try {
+                if (parts.length != 2) {
+                    throw new NumberFormatException();
+                }
+                return Spectrum.band(Double.parseDouble(parts[0].trim()), Double.parseDouble(parts[1].trim()));
+            } catch (NumberFormatException e) {
+                throw new IllegalArgumentException("--band is '" + band + "' (give two wavelengths in nm, e.g. --band 500-600)");
+            }
+        }
+        return Spectrum.monochromatic(wavelength == null ? DEFAULT_WAVELENGTH_NM : wavelength);
+    }
+
+    static Zernike parseZernike(String text) {
+        if (text == null || text.isBlank()) {
+            return Zernike.none();
+        }
+        Map<Integer, Double> m = new TreeMap<>();
+        for (String item : text.split(",")) {
+            String[] kv = item.split("=");
+            try {
+                if (kv.length != 2) {
+                    throw new NumberFormatException();
+                }
+                int j = Integer.parseInt(kv[0].trim());
+                if (m.put(j, Double.parseDouble(kv[1].trim())) != null) {
+                    throw new IllegalArgumentException("--zernike gives index " + j + " twice (give each index once)");
+                }
+            } catch (NumberFormatException e) {
+                throw new IllegalArgumentException("--zernike item '" + item.trim()
+                        + "' is not INDEX=WAVES (e.g. --zernike 4=0.10,6=0.05)");
+            }
+        }
+        return Zernike.of(m);
+    }
+
+    private void refuseOptics() {
+        refuse("--aperture", aperture, "airy");
+        refuse("--obstruction", obstruction, "airy");
+        refuse("--vanes", vanes, "airy");
+        refuse("--vane-width", vaneWidth, "airy");
+        refuse("--vane-angle", vaneAngle, "airy");
+        refuse("--wavelength", wavelength, "airy");
+        refuse("--band", band, "airy");
+        refuse("--zernike", zernike, "airy");
+    }
+
+    private void refuse(String name, Object value, String models) {
+        if (value != null) {
+            throw new IllegalArgumentException(name + " does not apply to --model " + model
+                    + " (it is for --model " + models + "; remove it or change the model)");
+        }
+    }
+
+    private double need(String name, Double value, String what) {
+        if (value == null) {
+            throw new IllegalArgumentException("--model " + model + " needs " + name + " (" + what + ")");
+        }
+        return value;
+    }
+
+    private static double orZero(Double v) {
+        return v == null ? 0 : v;
+    }
+}

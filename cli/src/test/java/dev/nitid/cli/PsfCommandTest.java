@@ -1,0 +1,124 @@
+package dev.nitid.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import dev.nitid.fits.FitsImage;
+import dev.nitid.fits.FitsReader;
+import dev.nitid.psf.PsfFigures;
+import java.awt.image.BufferedImage;
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import javax.imageio.ImageIO;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import picocli.CommandLine;
+
+/** {@code nitid psf} end to end: files written, header contents, and the one-line errors with exit codes. */
+class PsfCommandTest {
+    @TempDir
+    Path dir;
+
+    record Run(int code, String out, String err) {
+    }
+
+    static Run run(String... args) {
+        System.setProperty("java.awt.headless", "true");
+        CommandLine cl = NitidCommand.commandLine();
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        cl.setOut(new PrintWriter(out));
+        cl.setErr(new PrintWriter(err));
+        int code = cl.execute(args);
+        return new Run(code, out.toString(), err.toString());
+    }
+
+    @Test
+    void gaussianWritesNormalisedFitsWithFigures() throws Exception {
+        Path f = dir.resolve("g.fits");
+        Run r = run("psf", "--model", "gaussian", "--fwhm", "3", "--ellipticity", "0.2", "--angle", "30",
+                "--size", "31", "-o", f.toString());
+        assertEquals(0, r.code(), r.err());
+        FitsImage fi = FitsReader.read(f);
+        assertEquals(31, fi.image().width());
+        assertEquals(31, fi.image().height());
+        assertEquals(1, fi.image().stats(0).sum(), 1e-6, "sum 1");
+        assertEquals("gaussian", fi.header().getString("PSFMODEL").orElseThrow());
+        assertEquals(3, fi.header().getDouble("PSFFWHMA").orElseThrow(), 1e-12);
+        assertEquals(2.4, fi.header().getDouble("PSFFWHMB").orElseThrow(), 1e-12);
+        assertEquals(30, fi.header().getDouble("PSFANGLE").orElseThrow(), 1e-12);
+        assertEquals(5, fi.header().getDouble("OVERSAMP").orElseThrow(), 0);
+        PsfFigures fig = PsfFigures.of(fi.image());
+        assertEquals(fig.fwhmPx(), fi.header().getDouble("FWHM").orElseThrow(), 1e-6, "FWHM card = figure of the file");
+        String history = fi.header().cards().stream().filter(c -> "HISTORY".equals(c.key()))
+                .map(c -> String.valueOf(c.comment())).reduce("", String::concat);
+        assertTrue(history.contains("--ellipticity"), "command line in HISTORY: " + history);
+        assertTrue(r.out().contains("FWHM"), r.out());
+    }
+
+    @Test
+    void moffatWithPreview() throws Exception {
+        Path f = dir.resolve("m.fits");
+        Path png = dir.resolve("m.png");
+        Run r = run("psf", "--model", "moffat", "--fwhm", "3.2", "--beta", "3", "-o", f.toString(),
+                "--preview", png.toString());
+        assertEquals(0, r.code(), r.err());
+        FitsImage fi = FitsReader.read(f);
+        assertEquals(3.0, fi.header().getDouble("PSFBETA").orElseThrow(), 0);
+        assertEquals(1, fi.image().width() % 2, "automatic size is odd");
+        BufferedImage pic = ImageIO.read(png.toFile());
+        assertTrue(pic.getWidth() > 600 && pic.getHeight() > 400, "preview drawn: " + pic.getWidth() + "x" + pic.getHeight());
+    }
+
+    /** Plate scale in the header: 206.264806·p/f (reference README §4): 3.76 µm at 1000 mm → 0.775556″/px. */
+    @Test
+    void airyBandRecordsOpticsAndSampling() throws Exception {
+        Path f = dir.resolve("a.fits");
+        Run r = run("psf", "--model", "airy", "--aperture", "200", "--obstruction", "0.33", "--vanes", "4",
+                "--vane-width", "2", "--focal-length", "1000", "--pixel-size", "3.76", "--band", "500-600",
+                "--zernike", "4=0.05", "--jitter", "0.3", "--size", "33", "--oversample", "3", "-o", f.toString());
+        assertEquals(0, r.code(), r.err());
+        FitsImage fi = FitsReader.read(f);
+        assertEquals(0.775555671489, fi.header().getDouble("PLTSCALE").orElseThrow(), 1e-9);
+        assertEquals(5, fi.header().getDouble("NWAVE").orElseThrow(), 0, "5 wavelengths over 100 nm");
+        assertEquals(0.05, fi.header().getDouble("ZERN4").orElseThrow(), 0);
+        assertEquals(0.3, fi.header().getDouble("JITTER").orElseThrow(), 0);
+        double strehl = fi.header().getDouble("STREHL").orElseThrow();
+        assertTrue(strehl < 1 && strehl > 0.85, "defocus 0.05 waves: Strehl near exp(-(2π·0.05)²) = 0.906, got " + strehl);
+        // D = 200 mm, f = 1000 mm at 500 nm: Nyquist pixel 1.25 µm, so 3.76 µm under-samples (ratio ≈ 3)
+        assertTrue(fi.header().getString("UNDERSMP").orElseThrow().startsWith("T"));
+        assertTrue(r.err().contains("Nyquist"), "warning printed: " + r.err());
+    }
+
+    @Test
+    void mistakesGiveOneLineAndExitCode() throws Exception {
+        Path f = dir.resolve("x.fits");
+        Run noFwhm = run("psf", "--model", "gaussian", "-o", f.toString());
+        assertEquals(ExitCode.USAGE, noFwhm.code());
+        assertTrue(noFwhm.err().startsWith("nitid: ") && noFwhm.err().contains("--fwhm"), noFwhm.err());
+        assertEquals(1, noFwhm.err().strip().lines().count(), "one line: " + noFwhm.err());
+
+        Run even = run("psf", "--model", "moffat", "--fwhm", "3", "--size", "20", "-o", f.toString());
+        assertEquals(ExitCode.USAGE, even.code());
+        assertTrue(even.err().contains("odd"), even.err());
+
+        Run zern = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
+                "--zernike", "4:0.1", "-o", f.toString());
+        assertEquals(ExitCode.USAGE, zern.code());
+        assertTrue(zern.err().contains("INDEX=WAVES"), zern.err());
+
+        Run seeing = run("psf", "--model", "gaussian", "--fwhm", "2", "--seeing", "2", "-o", f.toString());
+        assertEquals(ExitCode.USAGE, seeing.code());
+        assertTrue(seeing.err().contains("--focal-length"), seeing.err());
+
+        Run ok = run("psf", "--model", "gaussian", "--fwhm", "2", "-o", f.toString());
+        assertEquals(0, ok.code(), ok.err());
+        Run again = run("psf", "--model", "gaussian", "--fwhm", "2", "-o", f.toString());
+        assertEquals(ExitCode.CANNOT_CREATE, again.code(), again.err());
+        Run over = run("psf", "--model", "gaussian", "--fwhm", "2", "-o", f.toString(), "--overwrite");
+        assertEquals(0, over.code(), over.err());
+        assertTrue(Files.size(f) > 0);
+    }
+}

@@ -1,0 +1,169 @@
+package dev.nitid.cli;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.junit.jupiter.api.Assumptions.assumeTrue;
+
+import dev.nitid.fits.FitsImage;
+import dev.nitid.fits.FitsReader;
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import picocli.CommandLine;
+
+class SimulateCommandTest {
+    @TempDir
+    Path dir;
+
+    record Run(int code, String out, String err) {
+    }
+
+    private static Run run(String... args) {
+        CommandLine cl = NitidCommand.commandLine();
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        cl.setOut(new PrintWriter(out));
+        cl.setErr(new PrintWriter(err));
+        int code = cl.execute(args);
+        return new Run(code, out.toString(), err.toString());
+    }
+
+    private String[] small(Path out, String... extra) {
+        List<String> a = new java.util.ArrayList<>(List.of("simulate", "-o", out.toString(), "--size", "96x80",
+                "--stars", "12", "--nebula", "40", "--filaments", "2", "--fwhm", "2.5", "--seed", "5"));
+        a.addAll(List.of(extra));
+        return a.toArray(String[]::new);
+    }
+
+    @Test
+    void writesFourFilesWithParametersInTheHeaders() throws Exception {
+        Path out = dir.resolve("field.fits");
+        Run r = run(small(out));
+        assertEquals(ExitCode.OK, r.code(), r.err());
+        FitsImage obs = FitsReader.read(out);
+        assertEquals(96, obs.image().width());
+        assertEquals(80, obs.image().height());
+        assertEquals(-32, obs.bitpix());
+        assertEquals(5.0, obs.header().getDouble("SIMSEED").orElseThrow());
+        assertEquals(12.0, obs.header().getDouble("NSTARS").orElseThrow());
+        assertEquals("observed", obs.header().getString("IMAGETYP").orElseThrow());
+        assertEquals(2.5, obs.header().getDouble("PSFFWHM").orElseThrow());
+        FitsImage truth = FitsReader.read(dir.resolve("field-truth.fits"));
+        assertEquals("truth", truth.header().getString("IMAGETYP").orElseThrow());
+        FitsImage psf = FitsReader.read(dir.resolve("field-psf.fits"));
+        double sum = 0;
+        for (float v : psf.image().plane(0)) {
+            sum += v;
+        }
+        assertEquals(1.0, sum, 1e-5, "PSF sums to 1");
+        List<String> csv = Files.readAllLines(dir.resolve("field-stars.csv"));
+        assertEquals("x,y,flux,peak,saturated", csv.get(0));
+        assertEquals(13, csv.size());
+        // Truth catalogue flux = the star's pixel in the truth image minus the extended structure there:
+        // at least it is never more than the truth pixel (common practice, no source).
+        String[] first = csv.get(1).split(",");
+        double x = Double.parseDouble(first[0]);
+        double y = Double.parseDouble(first[1]);
+        double flux = Double.parseDouble(first[2]);
+        assertTrue(truth.image().get((int) Math.round(x), (int) Math.round(y)) >= flux * (1 - 1e-6));
+    }
+
+    @Test
+    void pixelScaleIsReadBackFromTheWcs() throws Exception {
+        // Worked example, reference README §4: 3.76 µm pixels at 1000 mm give 0.775556 arcsec/px (astropy 5.2.1).
+        Path out = dir.resolve("scale.fits");
+        assertEquals(ExitCode.OK, run(small(out, "--pixel-scale", "0.775556")).code());
+        double s = dev.nitid.fits.Wcs.pixelScaleArcsec(FitsReader.read(out).header()).orElseThrow();
+        assertEquals(0.775556, s, 1e-9);
+    }
+
+    @Test
+    void sameSeedGivesTheSameFile() throws Exception {
+        Path a = dir.resolve("a.fits");
+        Path b = dir.resolve("b.fits");
+        assertEquals(ExitCode.OK, run(small(a)).code());
+        assertEquals(ExitCode.OK, run(small(b)).code());
+        assertArrayEquals(FitsReader.read(a).image().plane(0), FitsReader.read(b).image().plane(0));
+        assertEquals(Files.readString(dir.resolve("a-stars.csv")), Files.readString(dir.resolve("b-stars.csv")));
+    }
+
+    @Test
+    void sixteenBitOutputIsUnsignedThroughBzero() throws Exception {
+        Path out = dir.resolve("u16.fits");
+        assertEquals(ExitCode.OK, run(small(out, "--bitpix", "16")).code());
+        FitsImage f = FitsReader.read(out);
+        assertEquals(16, f.bitpix());
+        float v = f.image().get(3, 3);
+        assertEquals(Math.rint(v), v, 0.0, "integer ADU");
+        assertTrue(v > 32768 || v >= 0, "unsigned values read back as non-negative");
+    }
+
+    @Test
+    void refusesToOverwriteWithoutTheOption() {
+        Path out = dir.resolve("f.fits");
+        assertEquals(ExitCode.OK, run(small(out)).code());
+        Run again = run(small(out));
+        assertEquals(ExitCode.CANNOT_CREATE, again.code());
+        assertTrue(again.err().startsWith("nitid: ") && again.err().contains("--overwrite"), again.err());
+        assertEquals(ExitCode.OK, run(small(out, "--overwrite")).code());
+    }
+
+    @Test
+    void optionErrorsAreOneLineWithExitCode2() {
+        Path out = dir.resolve("g.fits");
+        for (String[] bad : new String[][] {{"--bitpix", "8"}, {"--gain", "0"}, {"--profile", "airy"},
+                {"--flux-law", "linear"}, {"--fwhm-gradient", "0.1"}}) {
+            Run r = run(small(out, bad));
+            assertEquals(ExitCode.USAGE, r.code(), String.join(" ", bad) + ": " + r.err());
+            assertEquals(1, r.err().strip().lines().count(), r.err());
+            assertTrue(r.err().startsWith("nitid: "), r.err());
+        }
+        Run size = run("simulate", "-o", out.toString(), "--size", "12xx");
+        assertEquals(ExitCode.USAGE, size.code(), size.err());
+        assertTrue(size.err().contains("--size is '12xx'"), size.err());
+        assertEquals(ExitCode.USAGE, run("simulate").code(), "missing -o");
+    }
+
+    @Test
+    void psfFileIsUsedAsGivenWithStarsOnPixelCentres() throws Exception {
+        // Round trip: the PSF written by one run drives a second run; its PSF output is the same kernel.
+        Path first = dir.resolve("one.fits");
+        assertEquals(ExitCode.OK, run(small(first, "--profile", "gaussian")).code());
+        Path second = dir.resolve("two.fits");
+        Run r = run(small(second, "--psf-file", dir.resolve("one-psf.fits").toString()));
+        assertEquals(ExitCode.OK, r.code(), r.err());
+        float[] a = FitsReader.read(dir.resolve("one-psf.fits")).image().plane(0);
+        float[] b = FitsReader.read(dir.resolve("two-psf.fits")).image().plane(0);
+        dev.nitid.testdata.ArrayAssert.assertClose(a, b, (int) Math.round(Math.sqrt(a.length)), 1e-6, 1e-9);
+        for (String line : Files.readAllLines(dir.resolve("two-stars.csv")).subList(1, 13)) {
+            double x = Double.parseDouble(line.split(",")[0]);
+            assertEquals(Math.rint(x), x, 0.0, "star on a pixel centre: " + line);
+        }
+    }
+
+    @Test
+    void missingPsfFileExits66() {
+        Run r = run(small(dir.resolve("h.fits"), "--psf-file", dir.resolve("nope.fits").toString()));
+        assertEquals(ExitCode.NO_INPUT, r.code(), r.err());
+    }
+
+    @Test
+    void writtenFilesPassFitsverify() throws Exception {
+        // fitsverify 4.20 (CFITSIO 4.02), the HEASARC FITS checker; skipped where it is not installed.
+        Path fv = Path.of("/usr/bin/fitsverify");
+        assumeTrue(Files.isExecutable(fv), "fitsverify not installed");
+        Path out = dir.resolve("v.fits");
+        assertEquals(ExitCode.OK, run(small(out, "--bitpix", "16")).code());
+        for (String name : List.of("v.fits", "v-truth.fits", "v-psf.fits")) {
+            Process p = new ProcessBuilder(fv.toString(), "-q", "-e", dir.resolve(name).toString())
+                    .redirectErrorStream(true).start();
+            String log = new String(p.getInputStream().readAllBytes());
+            assertEquals(0, p.waitFor(), name + ": " + log);
+        }
+    }
+}
