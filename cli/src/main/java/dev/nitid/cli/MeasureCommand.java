@@ -7,7 +7,10 @@ import dev.nitid.fits.FitsReader;
 import dev.nitid.fits.FitsWriter;
 import dev.nitid.fits.ReadOptions;
 import dev.nitid.fits.WriteOptions;
-import dev.nitid.image.Image;
+import dev.nitid.psf.PupilPsf;
+import dev.nitid.psf.Spectrum;
+import dev.nitid.stars.BlurBudget;
+import dev.nitid.stars.BlurSplit;
 import dev.nitid.stars.FieldMap;
 import dev.nitid.stars.MeasureSettings;
 import dev.nitid.stars.PlateScale;
@@ -100,6 +103,21 @@ public final class MeasureCommand implements Callable<Integer> {
     @Option(names = "--grid", paramLabel = "CxR", description = "Field grid, columns x rows. Default: ${DEFAULT-VALUE}.")
     String grid = "3x3";
 
+    @Option(names = "--aperture", paramLabel = "MM",
+            description = "Aperture diameter, mm. With --focal-length and --pixel-size, splits the blur into optics, "
+                    + "seeing and tracking.")
+    Double aperture;
+
+    @Option(names = "--obstruction", paramLabel = "RATIO",
+            description = "Central obstruction, diameter ratio (0 = none). Default: ${DEFAULT-VALUE}.")
+    double obstruction = 0;
+
+    @Option(names = "--wavelength", paramLabel = "NM", description = "Wavelength for the optics, nm. Default: ${DEFAULT-VALUE}.")
+    double wavelength = 550;
+
+    @Option(names = "--band", paramLabel = "LO-HI", description = "Band for the optics, nm (e.g. 500-600), instead of --wavelength.")
+    String band;
+
     @Option(names = "--max-stars", paramLabel = "N", description = "Fit at most N stars, brightest first. Default: ${DEFAULT-VALUE}.")
     int maxStars = MeasureSettings.defaults().maxStars();
 
@@ -139,14 +157,40 @@ public final class MeasureCommand implements Callable<Integer> {
             if (plot != null) {
                 writePng(FieldMap.draw(m, scale, input.getFileName().toString()));
             }
+            BlurSplit split = split(m, settings);
             if (json) {
-                out.println(json(m, scale));
+                out.println(json(m, scale, split));
             } else {
-                table(out, m, scale);
+                table(out, m, scale, split);
             }
             out.flush();
             return ExitCode.OK;
         });
+    }
+
+    /** The optics/seeing/tracking split when the optics are given, else null. */
+    private BlurSplit split(StarMeasurement m, MeasureSettings settings) {
+        if (aperture == null) {
+            return null;
+        }
+        if (focalLength == null || pixelSize == null) {
+            throw new IllegalArgumentException("--aperture needs --focal-length and --pixel-size to model the optics "
+                    + "(give all three)");
+        }
+        Spectrum spectrum = Spectrum.monochromatic(wavelength);
+        if (band != null) {
+            String[] b = band.split("-");
+            try {
+                spectrum = Spectrum.band(Double.parseDouble(b[0].trim()), Double.parseDouble(b[1].trim()));
+            } catch (RuntimeException e) {
+                throw new IllegalArgumentException("--band is '" + band + "' (give two wavelengths in nm, e.g. 500-600)");
+            }
+        }
+        double pix = pixelSize * binning;
+        PupilPsf optics = PupilPsf.of(aperture, focalLength, pix, spectrum).withObstruction(obstruction);
+        double scale = PlateScale.fromOptics(pixelSize, focalLength, binning, "optics").arcsecPerPixel();
+        int radius = Math.max(settings.stampRadius(), (int) Math.ceil(3 * m.best().fwhmMajor()));
+        return BlurBudget.split(m.best(), optics, scale, settings.sampling(), radius);
     }
 
     private MeasureSettings settings() {
@@ -236,7 +280,7 @@ public final class MeasureCommand implements Callable<Integer> {
                 .put("beta", p.beta()).put("beta_spread", p.betaSpread()).put("bic", p.bic());
     }
 
-    private String json(StarMeasurement m, PlateScale s) {
+    private String json(StarMeasurement m, PlateScale s, BlurSplit split) {
         ProfileSummary b = m.best();
         Map<String, Object> rejected = new LinkedHashMap<>();
         for (Map.Entry<RejectReason, Integer> e : m.rejected().entrySet()) {
@@ -279,11 +323,23 @@ public final class MeasureCommand implements Callable<Integer> {
                 .put("moffat", summary(m.moffat(), s))
                 .put("grid", Json.object().put("columns", m.gridColumns()).put("rows", m.gridRows()))
                 .put("regions", regions)
+                .put("blur_split", split == null ? null : Json.object()
+                        .put("optics_fwhm_px", split.opticsFwhmPx())
+                        .put("seeing_fwhm_arcsec", split.seeingFwhmArcsec())
+                        .put("seeing_fwhm_px", split.seeingFwhmPx())
+                        .put("tracking_fwhm_px", split.trackingFwhmPx())
+                        .put("tracking_angle_deg", deg(split.trackingAngle()))
+                        .put("optics_share", split.opticsShare())
+                        .put("seeing_share", split.seeingShare())
+                        .put("tracking_share", split.trackingShare())
+                        .put("model_fwhm_major_px", split.modelMajorPx())
+                        .put("model_fwhm_minor_px", split.modelMinorPx())
+                        .put("note", split.note().isEmpty() ? null : split.note()))
                 .put("timings_ms", timings)
                 .toString();
     }
 
-    private void table(PrintWriter out, StarMeasurement m, PlateScale s) {
+    private void table(PrintWriter out, StarMeasurement m, PlateScale s, BlurSplit split) {
         ProfileSummary b = m.best();
         out.printf(Locale.ROOT, "file:         %s (%d x %d)%n", input, m.width(), m.height());
         out.printf(Locale.ROOT, "stars:        %d used of %d detections; rejected: %s%s%n", m.stars().size(),
@@ -305,6 +361,15 @@ public final class MeasureCommand implements Callable<Integer> {
                 m.moffat().ellipticity(), m.moffat().beta(), m.moffat().count());
         out.printf(Locale.ROOT, "background:   %.6g, noise %.4g%n", m.backgroundLevel(), m.backgroundNoise());
         out.printf(Locale.ROOT, "PSF:          %s%n", m.psfReason());
+        if (split != null) {
+            out.printf(Locale.ROOT, "blur split:   optics %.2f px (%.0f%%), seeing %.2f arcsec = %.2f px (%.0f%%), "
+                    + "tracking %.2f px at %.0f deg (%.0f%%)%n", split.opticsFwhmPx(), 100 * split.opticsShare(),
+                    split.seeingFwhmArcsec(), split.seeingFwhmPx(), 100 * split.seeingShare(), split.trackingFwhmPx(),
+                    Math.toDegrees(split.trackingAngle()), 100 * split.trackingShare());
+            if (!split.note().isEmpty()) {
+                out.printf(Locale.ROOT, "              %s%n", split.note());
+            }
+        }
         out.println("regions (row 0 = first image row):");
         out.println("  col row  stars  FWHM px  ellipticity  angle deg");
         for (RegionSummary r : m.regions()) {

@@ -4,6 +4,7 @@ import dev.nitid.image.Image;
 import dev.nitid.psf.AnalyticPsf;
 import dev.nitid.psf.ConvolvedPsf;
 import dev.nitid.psf.GaussianPsf;
+import dev.nitid.psf.PsfFigures;
 import dev.nitid.psf.PsfModel;
 import dev.nitid.psf.Seeing;
 import java.util.ArrayList;
@@ -33,8 +34,15 @@ public final class BlurBudget {
      * 4″ bracket), far below the measurement error of a FWHM.
      */
     private static final int STEPS = 12;
-    /** Minor-axis FWHM of the tracking kernel, px: a line blur, thin against the 1/5-px rendering grid. */
-    private static final double LINE_WIDTH_PX = 0.02;
+    /**
+     * Width across the tracking trail, in sub-pixels of the render (0.1–0.3 px): it widens the minor axis by
+     * a few tenths of a percent, which the fitted seeing absorbs.
+     */
+    private static final double LINE_WIDTH_SUBPIXELS = 1.5;
+    /** Sub-pixels per pixel for the optics' own FWHM ({@link PsfFigures} on the fine grid). */
+    private static final int OPTICS_OVERSAMPLE = 8;
+    /** Finest sub-pixel rendering used for short trails (cost grows with its square). */
+    private static final int MAX_OVERSAMPLE = 15;
 
     private BlurBudget() {
     }
@@ -64,7 +72,10 @@ public final class BlurBudget {
         double major = measured.fwhmMajor();
         double minor = Math.min(measured.fwhmMinor(), major);
         double[] opt = f.measure(0, 0);
-        double opticsFwhm = Math.sqrt(opt[0] * opt[1]);
+        // The optics' own FWHM before the pixels (its fit on an under-sampled detector is ill-determined):
+        // measured on a fine sub-pixel rendering.
+        Image fine = optics.renderOversampled(2 * radius + 1, OPTICS_OVERSAMPLE, 0, 0);
+        double opticsFwhm = PsfFigures.of(fine).fwhmPx() / OPTICS_OVERSAMPLE;
         String note = "";
         double s = 0;
         double t = 0;
@@ -135,15 +146,23 @@ public final class BlurBudget {
 
         /** @return {major, minor} FWHM in px for seeing s (arcsec) and tracking t (px) */
         double[] measure(double seeingArcsec, double trackingPx) {
+            // Kernels are point-sampled on the render's sub-pixel grid: keep ~3 samples per tracking FWHM so
+            // that a short trail is not sampled as a point, and give the trail a width of 1.5 sub-pixels
+            // across, or a rotated line would fall between the grid points and vanish.
+            int over = PsfModel.DEFAULT_OVERSAMPLE;
+            if (trackingPx > 0) {
+                over = (int) Math.max(over, Math.min(MAX_OVERSAMPLE, Math.ceil(3 / trackingPx)));
+            }
+            double width = LINE_WIDTH_SUBPIXELS / over;
             List<AnalyticPsf> kernels = new ArrayList<>();
             if (seeingArcsec > 0) {
                 kernels.add(Seeing.moffat(seeingArcsec).kernel(scale));
             }
-            if (trackingPx > LINE_WIDTH_PX) {
-                kernels.add(new GaussianPsf(trackingPx, LINE_WIDTH_PX, angleDeg));
+            if (trackingPx > width) {
+                kernels.add(new GaussianPsf(trackingPx, width, angleDeg));
             }
             PsfModel m = kernels.isEmpty() ? optics : new ConvolvedPsf(optics, kernels, List.of(), scale);
-            Image img = m.render(size);
+            Image img = m.render(size, over, 0, 0);
             StarProfile p = StarProfileFit.fit(img.plane(0), null, size, size, shape, settings);
             return new double[] {p.fwhmMajor(), p.fwhmMinor()};
         }

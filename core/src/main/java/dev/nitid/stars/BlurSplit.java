@@ -4,7 +4,7 @@ package dev.nitid.stars;
  * How the measured blur splits between the optics, the sky (seeing) and the tracking
  * (see {@link BlurBudget#split}).
  *
- * @param opticsFwhmPx     FWHM of the optics alone (pupil diffraction, pixel-integrated), px
+ * @param opticsFwhmPx     FWHM of the optics alone (pupil diffraction) before pixel integration, px
  * @param seeingFwhmArcsec FWHM of the fitted seeing (round Moffat, β = 4.765), arcsec (0 if none needed)
  * @param seeingFwhmPx     the same in pixels
  * @param trackingFwhmPx   FWHM of the fitted tracking blur (a Gaussian along {@code trackingAngle}), px

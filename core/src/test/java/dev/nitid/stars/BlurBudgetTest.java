@@ -37,9 +37,10 @@ class BlurBudgetTest {
         double seeing = 2.2;
         double tracking = 2.0;
         double angleDeg = 30;
+        // The trail is 0.3 px wide across and rendered on a 1/10-px grid so that it is well sampled.
         PsfModel truth = new ConvolvedPsf(optics, List.of(Seeing.moffat(seeing).kernel(scale),
-                new GaussianPsf(tracking, 0.02, angleDeg)), List.of(), scale);
-        Image img = truth.render(31);
+                new GaussianPsf(tracking, 0.3, angleDeg)), List.of(), scale);
+        Image img = truth.render(31, 10, 0, 0);
         ProfileSummary measured = summaryOf(img, ProfileShape.MOFFAT);
         BlurSplit split = BlurBudget.split(measured, optics, scale, PixelSampling.INTEGRATED, 15);
         assertEquals(seeing, split.seeingFwhmArcsec(), REL * seeing, "seeing");
@@ -58,5 +59,8 @@ class BlurBudgetTest {
         BlurSplit split = BlurBudget.split(measured, optics, scale, PixelSampling.INTEGRATED, 15);
         assertEquals(0, split.seeingFwhmArcsec(), 0.02 * split.opticsFwhmPx() * scale);
         assertTrue(split.opticsShare() > 0.9, "optics share " + split.opticsShare());
+        // Airy FWHM = 1.028994 λ/D (reference README §1, scipy): λ/D = 550e-9/0.05 rad, at 206.264806·3.76/1000 ″/px.
+        double lambdaOverDPx = 550e-9 / 0.050 * 206264.806 / scale;
+        assertEquals(1.028994 * lambdaOverDPx, split.opticsFwhmPx(), 0.01 * 1.028994 * lambdaOverDPx, "Airy FWHM");
     }
 }
