@@ -20,7 +20,8 @@ import java.util.List;
  * <ul>
  *   <li><b>stars</b>: the stars {@link dev.nitid.stars.StarMeasurer} accepted (it has already rejected
  *   saturated, blended, extended, too-sharp and edge objects) whose fitted Gaussian peak exceeds
- *   {@code minPeakSigma} times the background σ and whose stamp lies inside the image; the ring metric
+ *   {@code minPeakSigma} times the sky σ, whose stamp lies inside the image, and which are isolated by
+ *   the rule of {@link QualityReference} (fluxes from the Gaussian fits); the ring metric
  *   uses the {@code ringStars} brightest whose background annulus lies inside;</li>
  *   <li><b>sky</b>: pixels farther than {@code max(3·FWHM, 8)} px from every detection (accepted or not)
  *   and beyond the radius where a broad-winged Moffat (β 2.5) of the measured FWHM and the detection's
@@ -118,7 +119,7 @@ public final class ObservedCheck {
         List<MeasuredStar> chosen = new ArrayList<>();
         for (MeasuredStar s : stars.stars()) {
             if (s.gaussian() != null && s.gaussian().amplitude() > settings.minPeakSigma() * inputSigma
-                    && inside(s, half + 1, w, h)) {
+                    && inside(s, half + 1, w, h) && isolated(s, stars.stars(), settings)) {
                 chosen.add(s);
             }
         }
@@ -167,6 +168,32 @@ public final class ObservedCheck {
             }
         }
         return near;
+    }
+
+    /**
+     * The isolation rule of {@link QualityReference}, with fluxes from the Gaussian fits
+     * (amplitude × major × minor FWHM, proportional to the Gaussian's volume).
+     */
+    private static boolean isolated(MeasuredStar s, List<MeasuredStar> all, QualitySettings q) {
+        double flux = volume(s);
+        for (MeasuredStar o : all) {
+            if (o == s || o.gaussian() == null) {
+                continue;
+            }
+            double d = Math.hypot(o.x() - s.x(), o.y() - s.y());
+            double f = volume(o);
+            if (d < q.isolationRadius() && f > q.isolationFraction() * flux) {
+                return false;
+            }
+            if (d < q.brighterRadius() && f > flux) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    private static double volume(MeasuredStar s) {
+        return s.gaussian().amplitude() * s.gaussian().fwhmMajor() * s.gaussian().fwhmMinor();
     }
 
     private static boolean inside(MeasuredStar s, double border, int w, int h) {
