@@ -33,9 +33,17 @@ class SimulateCommandTest {
         return new Run(code, out.toString(), err.toString());
     }
 
+    /** A small field without PSF options. */
+    private String[] base(Path out, String... extra) {
+        List<String> a = new java.util.ArrayList<>(List.of("simulate", "-o", out.toString(), "--image-size", "96x80",
+                "--stars", "12", "--nebula", "40", "--filaments", "2", "--seed", "5"));
+        a.addAll(List.of(extra));
+        return a.toArray(String[]::new);
+    }
+
+    /** A small field with a Moffat PSF of FWHM 2.5 px. */
     private String[] small(Path out, String... extra) {
-        List<String> a = new java.util.ArrayList<>(List.of("simulate", "-o", out.toString(), "--size", "96x80",
-                "--stars", "12", "--nebula", "40", "--filaments", "2", "--fwhm", "2.5", "--seed", "5"));
+        List<String> a = new java.util.ArrayList<>(List.of(base(out, "--model", "moffat", "--fwhm", "2.5")));
         a.addAll(List.of(extra));
         return a.toArray(String[]::new);
     }
@@ -52,7 +60,8 @@ class SimulateCommandTest {
         assertEquals(5.0, obs.header().getDouble("SIMSEED").orElseThrow());
         assertEquals(12.0, obs.header().getDouble("NSTARS").orElseThrow());
         assertEquals("observed", obs.header().getString("IMAGETYP").orElseThrow());
-        assertEquals(2.5, obs.header().getDouble("PSFFWHM").orElseThrow());
+        assertEquals(2.5, obs.header().getDouble("PSFFWHMA").orElseThrow(), "the psf command's keywords");
+        assertEquals("moffat", obs.header().getString("PSFMODEL").orElseThrow());
         FitsImage truth = FitsReader.read(dir.resolve("field-truth.fits"));
         assertEquals("truth", truth.header().getString("IMAGETYP").orElseThrow());
         FitsImage psf = FitsReader.read(dir.resolve("field-psf.fits"));
@@ -80,6 +89,20 @@ class SimulateCommandTest {
         assertEquals(ExitCode.OK, run(small(out, "--pixel-scale", "0.775556")).code());
         double s = dev.nitid.fits.Wcs.pixelScaleArcsec(FitsReader.read(out).header()).orElseThrow();
         assertEquals(0.775556, s, 1e-9);
+    }
+
+    @Test
+    void pupilModelFromThePsfOptionsWithPlateScale() throws Exception {
+        // The psf command's airy options drive the field; the plate scale follows from focal length and pixel
+        // size: 206.264806 × 3.76 / 1000 = 0.775556 arcsec/px (reference README §4, astropy 5.2.1).
+        Path out = dir.resolve("airy.fits");
+        Run r = run(base(out, "--model", "airy", "--aperture", "200", "--focal-length", "1000", "--pixel-size",
+                "3.76", "--obstruction", "0.3", "--vanes", "4", "--vane-width", "2", "--size", "31"));
+        assertEquals(ExitCode.OK, r.code(), r.err());
+        FitsImage f = FitsReader.read(out);
+        assertEquals("airy", f.header().getString("PSFMODEL").orElseThrow());
+        assertEquals(0.775556, dev.nitid.fits.Wcs.pixelScaleArcsec(f.header()).orElseThrow(), 1e-6);
+        assertEquals(31, FitsReader.read(dir.resolve("airy-psf.fits")).image().width());
     }
 
     @Test
@@ -116,16 +139,18 @@ class SimulateCommandTest {
     @Test
     void optionErrorsAreOneLineWithExitCode2() {
         Path out = dir.resolve("g.fits");
-        for (String[] bad : new String[][] {{"--bitpix", "8"}, {"--gain", "0"}, {"--profile", "airy"},
-                {"--flux-law", "linear"}, {"--fwhm-gradient", "0.1"}}) {
+        for (String[] bad : new String[][] {{"--bitpix", "8"}, {"--gain", "0"}, {"--oversample", "99"},
+                {"--flux-law", "linear"}, {"--fwhm-gradient", "0.1"}, {"--ellipticity", "0.3", "--fwhm-gradient", "0.1,0"},
+                {"--psf-file", "x.fits"}}) {
             Run r = run(small(out, bad));
             assertEquals(ExitCode.USAGE, r.code(), String.join(" ", bad) + ": " + r.err());
             assertEquals(1, r.err().strip().lines().count(), r.err());
             assertTrue(r.err().startsWith("nitid: "), r.err());
         }
-        Run size = run("simulate", "-o", out.toString(), "--size", "12xx");
+        Run size = run("simulate", "-o", out.toString(), "--image-size", "12xx");
         assertEquals(ExitCode.USAGE, size.code(), size.err());
-        assertTrue(size.err().contains("--size is '12xx'"), size.err());
+        assertTrue(size.err().contains("--image-size is '12xx'"), size.err());
+        assertEquals(ExitCode.USAGE, run(base(out, "--model", "cubic")).code(), "unknown model");
         assertEquals(ExitCode.USAGE, run("simulate").code(), "missing -o");
     }
 
@@ -133,9 +158,9 @@ class SimulateCommandTest {
     void psfFileIsUsedAsGivenWithStarsOnPixelCentres() throws Exception {
         // Round trip: the PSF written by one run drives a second run; its PSF output is the same kernel.
         Path first = dir.resolve("one.fits");
-        assertEquals(ExitCode.OK, run(small(first, "--profile", "gaussian")).code());
+        assertEquals(ExitCode.OK, run(base(first, "--model", "gaussian", "--fwhm", "2")).code());
         Path second = dir.resolve("two.fits");
-        Run r = run(small(second, "--psf-file", dir.resolve("one-psf.fits").toString()));
+        Run r = run(base(second, "--psf-file", dir.resolve("one-psf.fits").toString()));
         assertEquals(ExitCode.OK, r.code(), r.err());
         float[] a = FitsReader.read(dir.resolve("one-psf.fits")).image().plane(0);
         float[] b = FitsReader.read(dir.resolve("two-psf.fits")).image().plane(0);
@@ -148,7 +173,7 @@ class SimulateCommandTest {
 
     @Test
     void missingPsfFileExits66() {
-        Run r = run(small(dir.resolve("h.fits"), "--psf-file", dir.resolve("nope.fits").toString()));
+        Run r = run(base(dir.resolve("h.fits"), "--psf-file", dir.resolve("nope.fits").toString()));
         assertEquals(ExitCode.NO_INPUT, r.code(), r.err());
     }
 
