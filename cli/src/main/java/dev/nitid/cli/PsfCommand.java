@@ -16,6 +16,8 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ForkJoinPool;
 import javax.imageio.ImageIO;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -29,15 +31,17 @@ import picocli.CommandLine.Spec;
  * optionally a preview picture.
  */
 @Command(name = "psf", mixinStandardHelpOptions = true, sortOptions = false,
-        description = {"Builds a PSF from a model and writes it as FITS: a Gaussian or Moffat of given FWHM,",
-            "or the diffraction pattern of a telescope (aperture, central obstruction, spider vanes,",
-            "Zernike aberrations, one wavelength or a band), optionally blurred by seeing and tracking",
-            "jitter. The PSF is odd-sized, centred on its middle pixel, pixel-integrated and sums to 1.",
+        description = {"Builds a PSF from a model and writes it as FITS: a Gaussian or Moffat of",
+            "given FWHM, or the diffraction pattern of a telescope (aperture, central",
+            "obstruction, spider vanes, Zernike aberrations, one wavelength or a band),",
+            "optionally blurred by seeing and tracking jitter. The PSF is odd-sized,",
+            "centred on its middle pixel, pixel-integrated and sums to 1.",
             "",
             "Examples:",
             "  nitid psf --model moffat --fwhm 3.2 --beta 3 -o moffat.fits",
-            "  nitid psf --model airy --aperture 200 --obstruction 0.33 --vanes 4 --vane-width 2 \\",
-            "      --focal-length 1000 --pixel-size 3.76 --band 500-600 --seeing 2 -o scope.fits --preview scope.png",
+            "  nitid psf --model airy --aperture 200 --obstruction 0.33 --vanes 4 \\",
+            "      --vane-width 2 --focal-length 1000 --pixel-size 3.76 --band 500-600 \\",
+            "      --seeing 2 -o scope.fits --preview scope.png",
             ""})
 public final class PsfCommand implements Callable<Integer> {
     @Spec
@@ -71,11 +75,11 @@ public final class PsfCommand implements Callable<Integer> {
                         "the preview file exists (add --overwrite to replace it, or choose another name)");
             }
             long t0 = System.nanoTime();
-            Image image = model.render(size, os, 0, 0);
+            Image image = render(model, size, os, common.threads());
             PsfFigures figures = PsfFigures.of(image, model);
             double seconds = (System.nanoTime() - t0) / 1e9;
             FitsHeader header = header(model, figures, size, os)
-                    .withHistory("command: nitid psf " + String.join(" ", spec.commandLine().getParseResult().originalArgs()));
+                    .withHistory("command: nitid " + String.join(" ", spec.commandLine().getParseResult().originalArgs()));
             FitsWriter.write(output, image, header, WriteOptions.defaults().withOverwrite(overwrite));
             if (preview != null) {
                 writePreview(model, image, figures);
@@ -101,6 +105,24 @@ public final class PsfCommand implements Callable<Integer> {
         });
     }
 
+    /** Renders inside a pool of {@code threads} workers (the pupil FFT spreads over the pool it runs in). */
+    static Image render(PsfModel model, int size, int os, int threads) throws InterruptedException {
+        ForkJoinPool pool = new ForkJoinPool(threads);
+        try {
+            return pool.submit(() -> model.render(size, os, 0, 0)).get();
+        } catch (ExecutionException e) {
+            if (e.getCause() instanceof RuntimeException r) {
+                throw r;
+            }
+            if (e.getCause() instanceof Error err) {
+                throw err;
+            }
+            throw new IllegalStateException(e.getCause());
+        } finally {
+            pool.shutdown();
+        }
+    }
+
     private void writePreview(PsfModel model, Image image, PsfFigures figures) throws FitsException {
         BufferedImage pic = PsfPreview.draw(image, figures, title(model));
         try {
@@ -119,20 +141,7 @@ public final class PsfCommand implements Callable<Integer> {
     }
 
     static String title(PsfModel model) {
-        StringBuilder sb = new StringBuilder(model.family());
-        int n = 0;
-        for (PsfParameter p : model.parameters()) {
-            if (p.key().equals("PSFMODEL") || n >= 7) {
-                continue;
-            }
-            sb.append(n == 0 ? ": " : ", ").append(p.key().toLowerCase(Locale.ROOT)).append(' ').append(format(p.value()));
-            n++;
-        }
-        return sb.toString();
-    }
-
-    private static String format(Object v) {
-        return v instanceof Double d ? String.format(Locale.ROOT, "%.4g", d) : String.valueOf(v);
+        return model.description();
     }
 
     /** Every model parameter, the rendering settings, the derived figures and HISTORY (keywords in notes/psf.md). */
@@ -172,7 +181,7 @@ public final class PsfCommand implements Callable<Integer> {
             h = h.with("PLTSCALE", f.plateScaleArcsec().getAsDouble(), "[arcsec/px] 206.264806*PIXSIZE/FOCALLEN");
         }
         if (f.strehl().isPresent()) {
-            h = h.with("STREHL", f.strehl().getAsDouble(), "Strehl ratio at the image centre");
+            h = h.with("STREHL", f.strehl().getAsDouble(), "optical Strehl ratio (aberrations, no seeing)");
         }
         if (f.pixelOverNyquist().isPresent()) {
             h = h.with("NYQRATIO", f.pixelOverNyquist().getAsDouble(), "pixel / Nyquist pixel lambda_min/(2D)")

@@ -211,6 +211,7 @@ public final class PsfOptions {
             }
             return size;
         }
+        toModel(); // validates the options the automatic size depends on
         double half = switch (model) {
             case gaussian -> 3 * fwhm;
             case moffat -> 8 * fwhm;

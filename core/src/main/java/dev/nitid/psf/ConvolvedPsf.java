@@ -56,13 +56,22 @@ public record ConvolvedPsf(PsfModel base, List<AnalyticPsf> kernels, List<PsfPar
         float[] work = fine.plane(0);
         int h = pad * oversample;
         if (h > 0) {
-            for (AnalyticPsf k : kernels) {
-                Image ker = sampleKernel(k, h, oversample);
-                Convolver conv = Convolver.create(nb, nb, ker, new ConvolutionSettings(Boundary.ZERO, 1));
-                float[] out = new float[nb * nb];
-                conv.convolve(work, out);
-                work = out;
+            ConvolutionSettings zero = ConvolutionSettings.defaults().withBoundary(Boundary.ZERO);
+            // Blur the kernels into one on the margin's support first (small), then convolve the stamp once.
+            Image ker = sampleKernel(kernels.get(0), h, oversample);
+            int kn = 2 * h + 1;
+            for (int i = 1; i < kernels.size(); i++) {
+                float[] both = new float[kn * kn];
+                Convolver.create(kn, kn, sampleKernel(kernels.get(i), h, oversample), zero).convolve(ker.plane(0), both);
+                double[] acc = new double[kn * kn];
+                for (int j = 0; j < acc.length; j++) {
+                    acc[j] = both[j];
+                }
+                ker = Grids.normalise(acc, kn, kn);
             }
+            float[] out = new float[nb * nb];
+            Convolver.create(nb, nb, ker, zero).convolve(work, out);
+            work = out;
         }
         int n = size * oversample;
         float[] crop = new float[n * n];
@@ -96,6 +105,21 @@ public record ConvolvedPsf(PsfModel base, List<AnalyticPsf> kernels, List<PsfPar
     }
 
     @Override
+    public String description() {
+        StringBuilder sb = new StringBuilder(base.description());
+        for (PsfParameter p : blurParameters) {
+            if (p.key().equals("SEEING")) {
+                sb.append(", seeing ").append(Psfs.num((Double) p.value())).append(" arcsec");
+            } else if (p.key().equals("SEEPROF")) {
+                sb.append(' ').append(p.value());
+            } else if (p.key().equals("JITTER")) {
+                sb.append(", jitter ").append(Psfs.num((Double) p.value())).append(" px");
+            }
+        }
+        return sb.toString();
+    }
+
+    @Override
     public String family() {
         return base.family();
     }
@@ -112,6 +136,7 @@ public record ConvolvedPsf(PsfModel base, List<AnalyticPsf> kernels, List<PsfPar
         return Double.isFinite(plateScale) ? OptionalDouble.of(plateScale) : base.plateScaleArcsec();
     }
 
+    /** @return the base model's optical Strehl ratio: seeing and jitter are not aberrations of the optics */
     @Override
     public OptionalDouble strehl() {
         return base.strehl();
