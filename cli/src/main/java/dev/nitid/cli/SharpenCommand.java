@@ -5,7 +5,8 @@ import dev.nitid.image.AsinhStretch;
 import dev.nitid.image.Image;
 import dev.nitid.psf.PsfFigures;
 import dev.nitid.psf.PsfModel;
-import dev.nitid.quality.ObservedCheck;
+import dev.nitid.quality.ObservedQuality;
+import dev.nitid.quality.QualityReport;
 import dev.nitid.quality.QualitySettings;
 import dev.nitid.quality.StarSite;
 import dev.nitid.stars.BackgroundMap;
@@ -180,7 +181,9 @@ public final class SharpenCommand implements Callable<Integer> {
             Image luminanceIn = luminance(in.image());
             StarMeasurement stars = psf.measurement() != null ? psf.measurement()
                     : StarMeasurer.measure(luminanceIn, measureSettings(s));
-            ObservedCheck check = ObservedCheck.prepare(luminanceIn, stars, QualitySettings.defaults());
+            double satLevel = Double.isInfinite(s.saturation()) ? Double.NaN : s.saturation();
+            ObservedQuality check = ObservedQuality.of(luminanceIn, stars, satLevel, QualitySettings.defaults(),
+                    s.threads());
 
             PrintWriter err = spec.commandLine().getErr();
             ProgressLine progress = ProgressLine.create(err, System.console() != null, common,
@@ -189,7 +192,7 @@ public final class SharpenCommand implements Callable<Integer> {
             RestorationResult r = Restorers.create(s).restore(in.image(), psf.image(), progress, () -> false);
             progress.finish();
             double restoreSeconds = (System.nanoTime() - restoreStart) / 1e9;
-            ObservedCheck.Figures f = check.evaluate(luminance(r.image()));
+            QualityReport f = check.evaluate(luminance(r.image()));
 
             Optional<PlateScale> scale = model.focalLength != null && model.pixelSize != null
                     ? Optional.of(PlateScale.fromOptics(model.pixelSize, model.focalLength, 1,
@@ -247,7 +250,7 @@ public final class SharpenCommand implements Callable<Integer> {
 
     private MeasureSettings measureSettings(RestoreSettings s) {
         MeasureSettings ms = MeasureSettings.defaults().withThreads(s.threads());
-        return saturation != null ? ms.withSaturation(saturation) : ms;
+        return Double.isFinite(s.saturation()) ? ms.withSaturation(s.saturation()) : ms;
     }
 
     /** The mean of the planes: stars are measured and the summary computed on it for colour cubes. */
@@ -305,11 +308,11 @@ public final class SharpenCommand implements Callable<Integer> {
         }
     }
 
-    private void writePreview(Image before, Image after, ObservedCheck check, int threads) throws FitsException {
+    private void writePreview(Image before, Image after, ObservedQuality check, int threads) throws FitsException {
         Image lum = luminance(before);
         AsinhStretch stretch = AsinhStretch.forSky(lum.stats(0));
         List<int[]> crops = new ArrayList<>();
-        for (StarSite st : check.brightestStars(3)) {
+        for (StarSite st : check.fwhmStars().subList(0, Math.min(3, check.fwhmStars().size()))) {
             crops.add(new int[] {(int) Math.round(st.x()), (int) Math.round(st.y())});
         }
         crops.add(faintRegion(lum, threads));
@@ -380,7 +383,7 @@ public final class SharpenCommand implements Callable<Integer> {
 
     /** Everything the summary and the JSON report say. */
     private record Summary(FitsImage in, PsfChoice psf, RestoreSettings s, RestorationResult r,
-                           ObservedCheck.Figures f, Optional<PlateScale> scale, double seconds,
+                           QualityReport f, Optional<PlateScale> scale, double seconds,
                            double restoreSeconds, Path written) {
 
         double psfFwhm() {
@@ -398,12 +401,12 @@ public final class SharpenCommand implements Callable<Integer> {
             PlaneReport p0 = r.planes().get(0);
             line(b, "method", methodText(s.method()) + ", " + p0.iterations() + " iterations ("
                     + stopText(p0) + ")" + (r.planes().size() > 1 ? " on plane 0" : ""));
-            if (f.fwhmStars() > 0) {
-                line(b, "star FWHM", fmt(f.fwhmIn(), 2) + " -> " + fmt(f.fwhmOut(), 2) + " px (ratio "
-                        + fmt(f.fwhmRatio(), 2) + ", median of " + f.fwhmStars() + " stars)");
+            if (f.fwhm().stars() > 0) {
+                line(b, "star FWHM", fmt(f.fwhm().inputFwhm(), 2) + " -> " + fmt(f.fwhm().outputFwhm(), 2) + " px (ratio "
+                        + fmt(f.fwhmRatio(), 2) + ", median of " + f.fwhm().stars() + " stars)");
                 line(b, "dark rings", "worst " + fmt(f.ringDepth(), 2) + " sigma of the input sky noise ("
-                        + f.ringStars() + " brightest stars; 0 = none)");
-                line(b, "flux kept", fmt(100 * f.fluxRatio(), 1) + " % (median aperture ratio, " + f.fluxStars()
+                        + f.ring().stars() + " brightest stars; 0 = none)");
+                line(b, "flux kept", fmt(100 * f.flux().ratio(), 1) + " % (median aperture ratio, " + f.flux().stars()
                         + " stars)");
             } else {
                 line(b, "star FWHM", "not measured: no isolated unsaturated star above "
@@ -439,17 +442,17 @@ public final class SharpenCommand implements Callable<Integer> {
                     .put("iterations", p0.iterations())
                     .put("stop_reason", p0.stopReason().name())
                     .put("planes", planes)
-                    .put("star_fwhm_in_px", f.fwhmIn())
-                    .put("star_fwhm_out_px", f.fwhmOut())
+                    .put("star_fwhm_in_px", f.fwhm().inputFwhm())
+                    .put("star_fwhm_out_px", f.fwhm().outputFwhm())
                     .put("fwhm_ratio", f.fwhmRatio())
-                    .put("fwhm_stars", f.fwhmStars())
+                    .put("fwhm_stars", f.fwhm().stars())
                     .put("ring_depth_sigma", f.ringDepth())
-                    .put("ring_stars", f.ringStars())
+                    .put("ring_stars", f.ring().stars())
                     .put("sky_noise_in", f.noiseIn())
                     .put("sky_noise_out", f.noiseOut())
                     .put("noise_ratio", f.noiseRatio())
-                    .put("flux_ratio", f.fluxRatio())
-                    .put("flux_stars", f.fluxStars())
+                    .put("flux_ratio", f.flux().ratio())
+                    .put("flux_stars", f.flux().stars())
                     .put("threads", s.threads())
                     .put("seconds", seconds)
                     .put("restore_seconds", restoreSeconds);
@@ -516,15 +519,15 @@ public final class SharpenCommand implements Callable<Integer> {
     }
 
     private FitsHeader header(FitsHeader h, RestoreSettings s, RestorationResult r, PsfChoice psf,
-                              ObservedCheck.Figures f) {
+                              QualityReport f) {
         PlaneReport p0 = r.planes().get(0);
         String psfName = psf.source();
         h = h.withHistory("nitid " + NitidCommand.toolVersion() + " sharpen: " + methodText(s.method()) + ", "
                 + p0.iterations() + " iterations (" + stopText(p0) + "), edges " + edges + ", star guard " + guard
                 + ", PSF " + psfName);
         h = h.withHistory(String.format(Locale.ROOT, "star FWHM %.3f -> %.3f px, worst dark ring %.2f sigma, "
-                + "sky noise ratio %.3f, flux ratio %.4f", f.fwhmIn(), f.fwhmOut(), f.ringDepth(), f.noiseRatio(),
-                f.fluxRatio()));
+                + "sky noise ratio %.3f, flux ratio %.4f", f.fwhm().inputFwhm(), f.fwhm().outputFwhm(), f.ringDepth(), f.noiseRatio(),
+                f.flux().ratio()));
         h = h.withHistory("Deconvolved image: for viewing and morphology, not photometry unless validated.");
         h = h.with("NTDMETH", s.method().name(), "restoration method");
         h = h.with("NTDITER", (long) p0.iterations(), "iterations run (plane 0)");
