@@ -53,6 +53,10 @@ public final class PsfCommand implements Callable<Integer> {
     @Mixin
     PsfOptions psf;
 
+    @Option(names = "--size", paramLabel = "PX",
+            description = "PSF image side in pixels, odd (default: chosen from the model to hold its wings).")
+    Integer size;
+
     @Option(names = {"-o", "--output"}, paramLabel = "PSF.fits", required = true,
             description = "FITS file to write (float32).")
     Path output;
@@ -68,17 +72,17 @@ public final class PsfCommand implements Callable<Integer> {
     public Integer call() {
         return Failures.run(spec, common, () -> {
             PsfModel model = psf.toModel();
-            int size = psf.size();
+            int side = side();
             int os = psf.oversample();
             if (preview != null && !overwrite && Files.exists(preview)) {
                 throw new FitsException(FitsException.Kind.OUTPUT_EXISTS, preview, -1, null,
                         "the preview file exists (add --overwrite to replace it, or choose another name)");
             }
             long t0 = System.nanoTime();
-            Image image = render(model, size, os, common.threads());
+            Image image = render(model, side, os, common.threads());
             PsfFigures figures = PsfFigures.of(image, model);
             double seconds = (System.nanoTime() - t0) / 1e9;
-            FitsHeader header = header(model, figures, size, os)
+            FitsHeader header = header(model, figures, side, os)
                     .withHistory("command: nitid " + String.join(" ", spec.commandLine().getParseResult().originalArgs()));
             FitsWriter.write(output, image, header, WriteOptions.defaults().withOverwrite(overwrite));
             if (preview != null) {
@@ -94,7 +98,7 @@ public final class PsfCommand implements Callable<Integer> {
             if (!common.quiet()) {
                 PrintWriter out = spec.commandLine().getOut();
                 out.printf(Locale.ROOT, "wrote %s: %s PSF, %d x %d px, oversample %d, %.2f s%n", output,
-                        model.family(), size, size, os, seconds);
+                        model.family(), side, side, os, seconds);
                 out.println("  " + PsfPreview.summaryLine(figures));
                 if (preview != null) {
                     out.println("wrote " + preview);
@@ -103,6 +107,17 @@ public final class PsfCommand implements Callable<Integer> {
             }
             return ExitCode.OK;
         });
+    }
+
+    private int side() {
+        if (size == null) {
+            return psf.autoSize();
+        }
+        if (size < 1 || size % 2 == 0) {
+            throw new IllegalArgumentException("--size is " + size
+                    + ", but the PSF side must be odd so its centre is a pixel (try " + Math.max(1, size | 1) + ")");
+        }
+        return size;
     }
 
     /** Renders inside a pool of {@code threads} workers (the pupil FFT spreads over the pool it runs in). */
