@@ -66,6 +66,25 @@ class ReaderLimitsTest {
     }
 
     @Test
+    void workingCopiesEnterTheMemoryCheck() throws Exception {
+        // 6000 x 6000 float32 = 137 MiB: readable alone, refused when the job needs 40 copies (5.4 GiB)
+        // under the 2 GiB test heap; refused before any pixel is allocated.
+        Path f = tmp.resolve("mid.fits");
+        byte[] h = header(card("SIMPLE", "T"), card("BITPIX", -32), card("NAXIS", 2), card("NAXIS1", 6000),
+                card("NAXIS2", 6000));
+        try (RandomAccessFile raf = new RandomAccessFile(f.toFile(), "rw")) {
+            raf.write(h);
+            raf.setLength(h.length + 6000L * 6000L * 4);
+        }
+        long max = Runtime.getRuntime().maxMemory();
+        org.junit.jupiter.api.Assumptions.assumeTrue(max < 4L * 6000 * 6000 * 30, "heap too large for this check");
+        FitsException e = assertThrows(FitsException.class,
+                () -> FitsReader.read(f, ReadOptions.defaults().withWorkingCopies(40)));
+        assertEquals(FitsException.Kind.TOO_LARGE, e.kind());
+        assertThrows(IllegalArgumentException.class, () -> ReadOptions.defaults().withWorkingCopies(0));
+    }
+
+    @Test
     void planeBeyondTwoBillionPixelsIsRefused() throws Exception {
         Path f = tmp.resolve("wide.fits");
         byte[] h = header(card("SIMPLE", "T"), card("BITPIX", 8), card("NAXIS", 2), card("NAXIS1", 100000),

@@ -1,0 +1,59 @@
+package dev.nitid.quality;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import dev.nitid.image.Image;
+import dev.nitid.restore.Method;
+import dev.nitid.restore.RestoreSettings;
+import dev.nitid.restore.Restorers;
+import dev.nitid.restore.StarProtection;
+import dev.nitid.synth.DetectorSettings;
+import dev.nitid.synth.ExtendedSettings;
+import dev.nitid.synth.FieldGenerator;
+import dev.nitid.synth.FieldSettings;
+import dev.nitid.synth.FluxLaw;
+import dev.nitid.synth.ModelPsf;
+import dev.nitid.synth.Placement;
+import dev.nitid.synth.StarSettings;
+import dev.nitid.synth.SyntheticField;
+import org.junit.jupiter.api.Test;
+
+/**
+ * The truth-free figures (stars detected in the input) against the truth-based ones (catalogue stars,
+ * masks from the noise-free model) on a simulated field and its plain-RL restoration: two independent
+ * measurements of the same definitions must agree.
+ */
+class ObservedQualityTest {
+    /** FWHM ratio: different star sets, each median good to about the 1 % fit tolerance; 3 % together. */
+    static final double FWHM_RATIO_TOL = 0.03;
+    /** Noise ratio: different sky masks and background treatment; MAD σ from ≥ 1e4 px is good to ~1.2 %; 5 %. */
+    static final double NOISE_RATIO_RTOL = 0.05;
+    /** Flux ratio: medians over a handful of stars; 2 %. */
+    static final double FLUX_RATIO_TOL = 0.02;
+
+    @Test
+    void agreesWithTheTruthBasedFigures() {
+        SyntheticField f = FieldGenerator.generate(new FieldSettings(320, 320, 314,
+                new StarSettings(36, FluxLaw.UNIFORM_MAGNITUDE, 5e3, 5e5, 1, Placement.GRID, 36),
+                new ExtendedSettings(120, 4, 40, 1.2, 1, 100), ModelPsf.moffat(3.5, 3).withSize(41),
+                new DetectorSettings(150, 1.5, 6, 2, Double.POSITIVE_INFINITY)));
+        Image restored = Restorers.create(RestoreSettings.defaults().withMethod(Method.RICHARDSON_LUCY)
+                .withIterations(20).withProtection(StarProtection.none()).withThreads(2))
+                .restore(f.observed(), f.psf()).image();
+        QualityReport truth = QualityReference.of(f, QualitySettings.defaults()).evaluate(restored);
+        ObservedQuality observed = ObservedQuality.measure(f.observed(), QualitySettings.defaults(), 2);
+        QualityReport blind = observed.evaluate(restored);
+
+        assertTrue(observed.fwhmStars().size() >= 10, "stars " + observed.fwhmStars().size());
+        assertTrue(truth.fwhmRatio() < 0.9, "RL sharpens: " + truth.fwhm());
+        assertEquals(truth.fwhmRatio(), blind.fwhmRatio(), FWHM_RATIO_TOL, "FWHM ratio");
+        assertEquals(truth.noiseRatio(), blind.noiseRatio(), NOISE_RATIO_RTOL * truth.noiseRatio(), "noise ratio");
+        assertEquals(truth.fluxRatio(), blind.fluxRatio(), FLUX_RATIO_TOL, "flux ratio");
+        assertEquals(f.settings().detector().skySigma(), observed.inputSigma(),
+                0.03 * f.settings().detector().skySigma(), "input sky σ vs the detector model");
+        assertTrue(blind.ringDepth() > 1, "plain RL digs rings: " + blind.ring());
+        assertEquals(truth.ringDepth(), blind.ringDepth(), 0.25 * truth.ringDepth() + 0.5, "ring depth");
+        assertTrue(Double.isNaN(blind.errorRatio()), "no truth, no error figure");
+    }
+}
