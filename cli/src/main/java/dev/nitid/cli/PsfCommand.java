@@ -79,7 +79,7 @@ public final class PsfCommand implements Callable<Integer> {
             PsfFigures figures = PsfFigures.of(image, model);
             double seconds = (System.nanoTime() - t0) / 1e9;
             FitsHeader header = header(model, figures, size, os)
-                    .withHistory("command: nitid psf " + String.join(" ", spec.commandLine().getParseResult().originalArgs()));
+                    .withHistory("command: nitid " + String.join(" ", spec.commandLine().getParseResult().originalArgs()));
             FitsWriter.write(output, image, header, WriteOptions.defaults().withOverwrite(overwrite));
             if (preview != null) {
                 writePreview(model, image, figures);
@@ -141,20 +141,7 @@ public final class PsfCommand implements Callable<Integer> {
     }
 
     static String title(PsfModel model) {
-        StringBuilder sb = new StringBuilder(model.family());
-        int n = 0;
-        for (PsfParameter p : model.parameters()) {
-            if (p.key().equals("PSFMODEL") || n >= 7) {
-                continue;
-            }
-            sb.append(n == 0 ? ": " : ", ").append(p.key().toLowerCase(Locale.ROOT)).append(' ').append(format(p.value()));
-            n++;
-        }
-        return sb.toString();
-    }
-
-    private static String format(Object v) {
-        return v instanceof Double d ? String.format(Locale.ROOT, "%.4g", d) : String.valueOf(v);
+        return model.description();
     }
 
     /** Every model parameter, the rendering settings, the derived figures and HISTORY (keywords in notes/psf.md). */

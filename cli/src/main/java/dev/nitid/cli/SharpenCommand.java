@@ -32,9 +32,9 @@ import picocli.CommandLine.Spec;
  * plus HISTORY and parameter cards.
  */
 @Command(name = "sharpen", mixinStandardHelpOptions = true, sortOptions = false,
-        description = {"Restores detail in an image by deconvolution with its PSF (Richardson-Lucy by default,",
-            "with protection against dark rings around bright stars and an automatic stop when the",
-            "residual reaches the noise).",
+        description = {"Restores detail in an image by deconvolution with its PSF (Richardson-Lucy with a light",
+            "total-variation regulariser by default, with protection against dark rings around bright stars",
+            "and an automatic stop when the residual reaches the noise).",
             "",
             "Deconvolved images are for viewing and morphology, not for photometry, unless the",
             "restoration has been validated for that purpose."},
@@ -45,7 +45,7 @@ import picocli.CommandLine.Spec;
 public final class SharpenCommand implements Callable<Integer> {
     /** The method names the command accepts. */
     enum MethodName {
-        /** Richardson-Lucy (accelerated), the default. */
+        /** Richardson-Lucy with total-variation regularisation, the default. */
         rl,
         /** Wiener filter, one pass. */
         wiener
@@ -158,7 +158,9 @@ public final class SharpenCommand implements Callable<Integer> {
 
     private RestoreSettings settings(FitsImage in) {
         RestoreSettings s = RestoreSettings.defaults().withThreads(common.threads());
-        s = s.withMethod(method == MethodName.wiener ? Method.WIENER : Method.ACCELERATED_RL);
+        if (method == MethodName.wiener) {
+            s = s.withMethod(Method.WIENER);
+        }
         if (iterations != null) {
             s = s.withIterations(iterations);
         }

@@ -107,6 +107,10 @@ final class TiledEngine implements Engine {
     @Override
     public void correlate(float[] in, float[] out) {
         if (ext == null) {
+            if ((long) g.extW * g.extH > Integer.MAX_VALUE - 8) {
+                throw new IllegalArgumentException("the extended image " + g.extW + "x" + g.extH
+                        + " exceeds 2^31 pixels, too large for the adjoint: process the image in regions");
+            }
             ext = new float[g.extW * g.extH];
         }
         curIn = in;

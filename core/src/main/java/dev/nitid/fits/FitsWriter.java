@@ -113,7 +113,16 @@ public final class FitsWriter {
                 if (DROPPED.contains(key) || key.matches("NAXIS\\d+")) {
                     continue;
                 }
-                HeaderCard card = toNomTam(c);
+                HeaderCard card;
+                try {
+                    card = toNomTam(c);
+                } catch (RuntimeException e) {
+                    // A card nom-tam-fits cannot re-create (odd key or value form) is kept as readable text
+                    // rather than failing the whole write or dropping it silently.
+                    String text = (c.key() + " = " + c.value() + (c.comment() == null ? "" : " / " + c.comment()));
+                    card = HeaderCard.createCommentCard(text.length() > FitsHeader.COMMENTARY_WIDTH
+                            ? text.substring(0, FitsHeader.COMMENTARY_WIDTH) : text);
+                }
                 longStrings |= card.cardSize() > 1 && !card.isCommentStyleCard();
                 h.addLine(card);
             }

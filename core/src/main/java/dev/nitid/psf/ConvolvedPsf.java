@@ -105,6 +105,21 @@ public record ConvolvedPsf(PsfModel base, List<AnalyticPsf> kernels, List<PsfPar
     }
 
     @Override
+    public String description() {
+        StringBuilder sb = new StringBuilder(base.description());
+        for (PsfParameter p : blurParameters) {
+            if (p.key().equals("SEEING")) {
+                sb.append(", seeing ").append(Psfs.num((Double) p.value())).append(" arcsec");
+            } else if (p.key().equals("SEEPROF")) {
+                sb.append(' ').append(p.value());
+            } else if (p.key().equals("JITTER")) {
+                sb.append(", jitter ").append(Psfs.num((Double) p.value())).append(" px");
+            }
+        }
+        return sb.toString();
+    }
+
+    @Override
     public String family() {
         return base.family();
     }

@@ -106,6 +106,14 @@ public record GaussianPsf(double fwhmMajor, double fwhmMinor, double angleDeg) i
     }
 
     @Override
+    public String description() {
+        return fwhmMinor == fwhmMajor
+                ? String.format(java.util.Locale.ROOT, "Gaussian, FWHM %s px", Psfs.num(fwhmMajor))
+                : String.format(java.util.Locale.ROOT, "Gaussian, FWHM %s x %s px at %s deg",
+                        Psfs.num(fwhmMajor), Psfs.num(fwhmMinor), Psfs.num(angleDeg));
+    }
+
+    @Override
     public String family() {
         return "gaussian";
     }

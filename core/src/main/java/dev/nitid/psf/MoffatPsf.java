@@ -125,6 +125,15 @@ public record MoffatPsf(double fwhmMajor, double fwhmMinor, double beta, double 
     }
 
     @Override
+    public String description() {
+        return (fwhmMinor == fwhmMajor
+                ? String.format(java.util.Locale.ROOT, "Moffat, FWHM %s px", Psfs.num(fwhmMajor))
+                : String.format(java.util.Locale.ROOT, "Moffat, FWHM %s x %s px at %s deg",
+                        Psfs.num(fwhmMajor), Psfs.num(fwhmMinor), Psfs.num(angleDeg)))
+                + String.format(java.util.Locale.ROOT, ", beta %s", Psfs.num(beta));
+    }
+
+    @Override
     public String family() {
         return "moffat";
     }

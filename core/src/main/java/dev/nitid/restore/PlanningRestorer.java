@@ -4,6 +4,7 @@ import dev.nitid.image.Image;
 import dev.nitid.image.ImageStats;
 import dev.nitid.restore.internal.FrequencyFilter;
 import dev.nitid.restore.internal.RlPlan;
+import dev.nitid.restore.internal.SkyNoise;
 import dev.nitid.restore.internal.StarFloor;
 import java.util.ArrayList;
 import java.util.List;
@@ -50,9 +51,9 @@ final class PlanningRestorer implements Restorer {
                         masked++;
                     }
                 }
-                ImageStats st = ImageStats.of(validCopy(d, valid));
-                double sky = Double.isNaN(st.median()) ? 0 : st.median();
-                double sigma = st.madSigma() > 0 ? st.madSigma() : fallbackSigma(st);
+                SkyNoise.Estimate est = SkyNoise.of(d, valid, w, h);
+                double sky = Double.isNaN(est.sky()) ? 0 : est.sky();
+                double sigma = est.sigma() > 0 ? est.sigma() : fallbackSigma(observed.stats(p));
                 NoiseModel noise = settings.noise().isEstimated() ? estimate(sky, sigma) : settings.noise();
                 Method m = settings.method();
                 if (m.iterative()) {
@@ -146,19 +147,6 @@ final class PlanningRestorer implements Restorer {
             v[i] = Float.isFinite(d[i]) && d[i] < sat;
         }
         return v;
-    }
-
-    private static float[] validCopy(float[] d, boolean[] valid) {
-        if (valid == null) {
-            return d;
-        }
-        float[] c = d.clone();
-        for (int i = 0; i < c.length; i++) {
-            if (!valid[i]) {
-                c[i] = Float.NaN;
-            }
-        }
-        return c;
     }
 
     private static Image normalised(Image psf, int p) {

@@ -294,6 +294,31 @@ class FitsWriterTest {
         }
     }
 
+    /**
+     * A HIERARCH card (ESO HIERARCH convention, registered with the IAU FITS Working Group) read from a file
+     * is written back with the same key and value, and fitsverify accepts it.
+     */
+    @Test
+    void hierarchCardsSurviveARoundTrip() throws Exception {
+        String hdr = String.format("%-80s%-80s%-80s%-80s%-80s%-80s%-80s", "SIMPLE  =                    T",
+                "BITPIX  =                  -32", "NAXIS   =                    2", "NAXIS1  =                    2",
+                "NAXIS2  =                    2", "HIERARCH ESO DET CHIP TEMP = 150.5 / detector temperature",
+                "END");
+        byte[] b = new byte[2 * 2880];
+        System.arraycopy(hdr.getBytes(StandardCharsets.US_ASCII), 0, b, 0, hdr.length());
+        java.util.Arrays.fill(b, hdr.length(), 2880, (byte) ' ');
+        Path in = tmp.resolve("hierarch.fits");
+        Files.write(in, b);
+        FitsImage fi = FitsReader.read(in);
+        Path out = tmp.resolve("hierarch-out.fits");
+        FitsWriter.write(out, fi.image(), fi.header(), WriteOptions.defaults());
+        FitsHeader back = FitsReader.read(out).header();
+        Card c = back.cards().stream().filter(k -> k.key().contains("CHIP")).findFirst().orElseThrow();
+        assertEquals(fi.header().card(c.key()).orElseThrow().value(), c.value());
+        assertEquals(150.5, back.getDouble(c.key()).getAsDouble(), 0.0);
+        ExternalTools.assertFitsverifyClean(out);
+    }
+
     @Test
     void writtenFilesOfEveryTypePassFitsverify() throws Exception {
         ExternalTools.assumeFitsverify();

@@ -25,7 +25,9 @@ class PlateScaleTest {
 
     @Test
     void headerOrderWcsThenFocalLength() {
-        FitsHeader wcs = FitsHeader.empty().with("CD1_1", -2.0 / 3600, "").with("CD1_2", 0.0, "")
+        // A CD matrix scales angles only on a celestial axis pair (Calabretta & Greisen 2002, §2).
+        FitsHeader wcs = FitsHeader.empty().with("CTYPE1", "RA---TAN", "").with("CTYPE2", "DEC--TAN", "")
+                .with("CD1_1", -2.0 / 3600, "").with("CD1_2", 0.0, "")
                 .with("CD2_1", 0.0, "").with("CD2_2", 2.0 / 3600, "").with("FOCALLEN", 1000.0, "")
                 .with("XPIXSZ", 3.76, "");
         PlateScale s = PlateScale.fromHeader(wcs).orElseThrow();
