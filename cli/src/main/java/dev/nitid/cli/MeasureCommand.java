@@ -43,11 +43,12 @@ import picocli.CommandLine.Spec;
  * their FWHM, ellipticity and β, maps them across the field and builds the PSF the restorers use.
  */
 @Command(name = "measure", mixinStandardHelpOptions = true,
-        description = {"Finds the stars of an image and measures them: FWHM (pixels, and arcseconds when the",
-            "plate scale is known), ellipticity, angle and Moffat beta, from elliptical Gaussian and Moffat",
-            "fits; says how many detections were rejected and why; maps FWHM and ellipticity on a grid of",
-            "regions; and builds the measured PSF (stacked from the stars, or the fitted model).",
-            "Colour images are measured on the mean of their planes."})
+        description = {"Finds the stars of an image and measures them: FWHM (pixels, and arcseconds when the "
+                + "plate scale is known), ellipticity, angle and Moffat beta, from elliptical Gaussian and Moffat "
+                + "fits. Says how many detections were rejected and why, maps FWHM and ellipticity on a grid of "
+                + "regions, and builds the measured PSF (stacked from the stars, or the fitted model).",
+            "With --aperture, --focal-length and --pixel-size it also splits the blur into optics, seeing and "
+                + "tracking. Colour images are measured on the mean of their planes."})
 public final class MeasureCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;

@@ -123,7 +123,7 @@ public final class StarMeasurer {
     }
 
     /** A local maximum of the filtered image. */
-    private record Candidate(int x, int y, float filtered, int index, double significance) {
+    private record Candidate(int x, int y, float filtered, int index, double significance, double subX, double subY) {
     }
 
     /**
@@ -168,7 +168,7 @@ public final class StarMeasurer {
         int skipped = 0;
         for (int ci = 0; ci < cands.size(); ci++) {
             Candidate c = cands.get(ci);
-            where[ci] = new double[] {c.x(), c.y()};
+            where[ci] = new double[] {c.subX(), c.subY()};
             RejectReason why = cheapReject(c, pixels, resid, width, height, grid, s);
             if (why != null) {
                 rejected.merge(why, 1, Integer::sum);
@@ -465,7 +465,9 @@ public final class StarMeasurer {
                 if (found == null) {
                     found = new ArrayList<>();
                 }
-                found.add(new Candidate(x, y, v, row + x, v / (noiseGain * bg.noiseAt(x, y))));
+                found.add(new Candidate(x, y, v, row + x, v / (noiseGain * bg.noiseAt(x, y)),
+                        x + vertex(filt, row + x, 1, x > 0, x < w - 1),
+                        y + vertex(filt, row + x, w, y > 0, y < h - 1)));
             }
             rows[y] = found;
         });
@@ -478,6 +480,24 @@ public final class StarMeasurer {
         all.sort((p, q) -> p.filtered() != q.filtered() ? Float.compare(q.filtered(), p.filtered())
                 : Integer.compare(p.index(), q.index()));
         return all;
+    }
+
+    /**
+     * Sub-pixel offset of a maximum along one axis: the vertex of the parabola through the three filtered values
+     * (common practice, no source), limited to ±0.5 px; 0 at the image edge.
+     */
+    private static double vertex(float[] f, int i, int step, boolean hasLow, boolean hasHigh) {
+        if (!hasLow || !hasHigh) {
+            return 0;
+        }
+        double a = f[i - step];
+        double b = f[i];
+        double c = f[i + step];
+        double den = a - 2 * b + c;
+        if (!(den < 0)) {
+            return 0;
+        }
+        return Math.max(-0.5, Math.min(0.5, 0.5 * (a - c) / den));
     }
 
     /** True if (x, y) is the largest within the separation box; equal values go to the first in memory. */
