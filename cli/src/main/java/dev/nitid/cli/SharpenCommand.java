@@ -531,34 +531,12 @@ public final class SharpenCommand implements Callable<Integer> {
             case pixels -> StarProtection.skyFloor();
             case none -> StarProtection.none();
         });
-        OptionalDouble level = saturation != null ? OptionalDouble.of(saturation) : headerSaturation(in);
+        OptionalDouble level = saturation != null ? OptionalDouble.of(saturation)
+                : StarMeasurer.saturationLevel(in.header(), in.bitpix());
         if (level.isPresent()) {
             s = s.withSaturation(level.getAsDouble());
         }
         return s;
-    }
-
-    /**
-     * The SATURATE card (common practice, no source), else the largest value of an integer data type
-     * (FITS Standard 4.0, Table 8 and §5.3: physical = BZERO + BSCALE·stored).
-     */
-    static OptionalDouble headerSaturation(FitsImage in) {
-        OptionalDouble sat = in.header().getDouble("SATURATE");
-        if (sat.isPresent() && sat.getAsDouble() > 0) {
-            return sat;
-        }
-        double bzero = in.header().getDouble("BZERO").orElse(0);
-        double bscale = in.header().getDouble("BSCALE").orElse(1);
-        double stored = switch (in.bitpix()) {
-            case 8 -> 255;
-            case 16 -> 32767;
-            case 32 -> 2147483647.0;
-            default -> Double.NaN;
-        };
-        if (Double.isNaN(stored) || !(bscale > 0)) {
-            return OptionalDouble.empty();
-        }
-        return OptionalDouble.of(bzero + bscale * stored);
     }
 
     private FitsHeader header(FitsHeader h, RestoreSettings s, RestorationResult r, PsfChoice psf,
