@@ -186,7 +186,7 @@ public final class SharpenCommand implements Callable<Integer> {
             RestoreSettings s = settings(in);
             PsfChoice psf = psf(in);
             stages.mark("psf");
-            Image luminanceIn = luminance(in.image());
+            Image luminanceIn = StarMeasurer.luminance(in.image());
             StarMeasurement stars = psf.measurement() != null ? psf.measurement()
                     : StarMeasurer.measure(luminanceIn, measureSettings(s));
             double satLevel = Double.isInfinite(s.saturation()) ? Double.NaN : s.saturation();
@@ -202,7 +202,7 @@ public final class SharpenCommand implements Callable<Integer> {
             progress.finish();
             double restoreSeconds = (System.nanoTime() - restoreStart) / 1e9;
             stages.mark("restore");
-            QualityReport f = check.evaluate(luminance(r.image()));
+            QualityReport f = check.evaluate(StarMeasurer.luminance(r.image()));
             stages.mark("figures");
 
             Optional<PlateScale> scale = model.focalLength != null && model.pixelSize != null
@@ -267,22 +267,6 @@ public final class SharpenCommand implements Callable<Integer> {
         return Double.isFinite(s.saturation()) ? ms.withSaturation(s.saturation()) : ms;
     }
 
-    /** The mean of the planes: stars are measured and the summary computed on it for colour cubes. */
-    static Image luminance(Image img) {
-        if (img.planes() == 1) {
-            return img;
-        }
-        Image l = Image.create(img.width(), img.height());
-        float[] dst = l.plane(0);
-        for (int p = 0; p < img.planes(); p++) {
-            float[] src = img.plane(p);
-            for (int i = 0; i < dst.length; i++) {
-                dst[i] += src[i] / img.planes();
-            }
-        }
-        return l;
-    }
-
     /** {@code IN-sharp.fits} beside the input, with the FITS or gzip extension replaced. */
     static Path defaultOutput(Path in) {
         String name = in.getFileName().toString();
@@ -323,7 +307,7 @@ public final class SharpenCommand implements Callable<Integer> {
     }
 
     private void writePreview(Image before, Image after, ObservedQuality check, int threads) throws FitsException {
-        Image lum = luminance(before);
+        Image lum = StarMeasurer.luminance(before);
         AsinhStretch stretch = AsinhStretch.forSky(lum.stats(0));
         List<int[]> crops = new ArrayList<>();
         for (StarSite st : check.fwhmStars().subList(0, Math.min(3, check.fwhmStars().size()))) {
