@@ -22,9 +22,9 @@ import picocli.CommandLine.Spec;
  * {@code nitid info FILE [--hdu N] [--json]}: what a FITS file holds, the first thing to run on a new file.
  */
 @Command(name = "info", mixinStandardHelpOptions = true,
-        description = {"Shows what a FITS file holds: image size, planes, BITPIX, the HDU read, pixel",
-            "statistics per plane (min, max, median, noise as 1.4826 x median absolute deviation, masked",
-            "pixels) and the pixel scale when the header's WCS gives one."})
+        description = {"Shows what a FITS file holds: image size, planes, BITPIX, the HDU read,",
+            "per-plane statistics (min, max, median, noise = 1.4826 x median absolute",
+            "deviation, masked pixels) and the pixel scale when the header's WCS gives one."})
 public final class InfoCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;

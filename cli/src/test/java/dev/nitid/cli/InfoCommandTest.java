@@ -39,6 +39,27 @@ class InfoCommandTest {
         assertTrue(r.out().contains("HDU:         0 (primary)"), r.out());
     }
 
+    /**
+     * Every valid flavour of the issue, as written by astropy 5.2.1 (gen_fits_golden.py and
+     * testdata/scripts/gen_fits_golden_extra.py): info succeeds and reports astropy's shape.
+     */
+    @org.junit.jupiter.params.ParameterizedTest(name = "{0}")
+    @org.junit.jupiter.params.provider.CsvSource({
+        "fits_u16_bzero32768.fits, 0, 4, 3, 1, 16",
+        "fits_f32_nan.fits, 0, 4, 2, 1, -32",
+        "fits_i16_blank.fits, 0, 5, 1, 1, 16",
+        "fits_f64_cube.fits, 0, 2, 2, 2, -64",
+        "fits_ext_image.fits, 1, 3, 2, 1, 32",
+        "fits_u16_gzip.fits.gz, 0, 4, 3, 1, 16",
+        "fits_i8_rgb_cube.fits, 0, 5, 4, 3, 8",
+        "fits_i64.fits, 0, 3, 1, 1, 64"})
+    void worksOnEveryValidFlavour(String name, int hdu, int w, int h, int planes, int bitpix) throws Exception {
+        CliRun r = CliRun.of("info", "--json", golden(name).toString());
+        assertEquals(0, r.exit(), r.err());
+        assertTrue(r.out().contains("\"hdu\":" + hdu + ",\"width\":" + w + ",\"height\":" + h + ",\"planes\":"
+                + planes + ",\"bitpix\":" + bitpix + ","), r.out());
+    }
+
     @Test
     void jsonReportsMaskedPixelsAndPlanes() throws Exception {
         CliRun r = CliRun.of("info", "--json", golden("fits_f32_nan.fits").toString());

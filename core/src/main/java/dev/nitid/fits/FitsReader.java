@@ -30,7 +30,7 @@ import nom.tam.util.Quantizer;
  *
  * <p>Validation happens before allocation (see {@link HduScanner}): a damaged, truncated or hostile file
  * gives a {@link FitsException}, never an {@link OutOfMemoryError}. The memory check compares the float32
- * planes needed with the largest heap the JVM may use.
+ * planes needed, times {@link ReadOptions#workingCopies()}, with 90 % of the largest heap the JVM may use.
  *
  * <p>Stateless and thread-safe.
  */
@@ -81,7 +81,7 @@ public final class FitsReader {
             boolean gzip = b0 == 0x1F && b1 == 0x8B;
             InputStream in = gzip ? new BufferedInputStream(new GZIPInputStream(buffered, GZIP_BUFFER), GZIP_BUFFER)
                     : buffered;
-            return scan(file, new HduScanner(file, in, gzip ? -1 : length), options.hdu());
+            return scan(file, new HduScanner(file, in, gzip ? -1 : length), options);
         } catch (ZipException | EOFException e) {
             throw new FitsException(Kind.BAD_DATA, file, -1, null, "the gzip compression is damaged or cut short ("
                     + e.getMessage() + ") (copy the file again, or test it with 'gzip -t')", e);
@@ -110,7 +110,9 @@ public final class FitsReader {
         }
     }
 
-    private static FitsImage scan(Path file, HduScanner scanner, int wanted) throws FitsException, IOException {
+    private static FitsImage scan(Path file, HduScanner scanner, ReadOptions options)
+            throws FitsException, IOException {
+        int wanted = options.hdu();
         String skippedWhy = null;
         int compressedAt = -1;
         for (int index = 0; ; index++) {
@@ -129,7 +131,7 @@ public final class FitsReader {
                         + " (check that this is an image and not a table or an empty header)");
             }
             if (wanted == index || (wanted < 0 && hdu.type() == Type.IMAGE)) {
-                return decode(file, scanner, hdu);
+                return decode(file, scanner, hdu, options.workingCopies());
             }
             if (hdu.type() == Type.EMPTY && hdu.axes().length > 0 && skippedWhy == null) {
                 skippedWhy = "HDU " + index + " has " + HduScanner.describeAxes(hdu.axes()) + ", which is empty";
@@ -141,7 +143,8 @@ public final class FitsReader {
         }
     }
 
-    private static FitsImage decode(Path file, HduScanner scanner, HduInfo hdu) throws FitsException, IOException {
+    private static FitsImage decode(Path file, HduScanner scanner, HduInfo hdu, int copies)
+            throws FitsException, IOException {
         int index = hdu.index();
         long[] axes = hdu.axes();
         switch (hdu.type()) {
@@ -180,8 +183,8 @@ public final class FitsReader {
         }
         long need = 4L * width * height * planes;
         long max = Runtime.getRuntime().maxMemory();
-        if (need > HEAP_SHARE * max) {
-            throw tooLarge(file, index, width, height, planes, need, max, null);
+        if ((double) need * copies > HEAP_SHARE * max) {
+            throw tooLarge(file, index, width, height, planes, need * copies, max, null);
         }
         Image image;
         try {
@@ -196,8 +199,8 @@ public final class FitsReader {
 
     private static FitsException tooLarge(Path file, int index, long w, long h, int planes, long need, long max,
                                           Throwable cause) {
-        return new FitsException(Kind.TOO_LARGE, file, index, null, "the image (" + w + " x " + h
-                + (planes > 1 ? " x " + planes : "") + " pixels) needs " + mib(need) + " MiB as float32 but the "
+        return new FitsException(Kind.TOO_LARGE, file, index, null, "the job on this image (" + w + " x " + h
+                + (planes > 1 ? " x " + planes : "") + " pixels) needs about " + mib(need) + " MiB but the "
                 + "Java heap is limited to " + mib(max) + " MiB (raise the heap with -Xmx, or crop the image)",
                 cause);
     }
@@ -207,18 +210,17 @@ public final class FitsReader {
     }
 
     private static Quantizer quantizer(Path file, HduInfo hdu) throws FitsException {
-        var h = hdu.header();
         double scale = number(file, hdu, "BSCALE", 1.0);
         double zero = number(file, hdu, "BZERO", 0.0);
         Long blank = null;
-        if (hdu.bitpix() > 0 && h.containsKey("BLANK")) {
+        if (hdu.bitpix() > 0 && hdu.card("BLANK") != null) {
             blank = (long) number(file, hdu, "BLANK", 0.0);
         }
         return new Quantizer(scale, zero, blank);
     }
 
     private static double number(Path file, HduInfo hdu, String key, double dflt) throws FitsException {
-        var card = hdu.header().findCard(key);
+        var card = hdu.card(key);
         if (card == null || card.getValue() == null || card.getValue().isBlank()) {
             return dflt;
         }

@@ -20,9 +20,18 @@ public final class Wcs {
      * the determinant is the geometric mean of the two axis scales, common practice).
      *
      * @param h the header (input, not modified)
-     * @return the scale, or empty if the header has no usable CD or CDELT values, or axes not in degrees
+     * @return the scale, or empty if axes 1 and 2 are neither a celestial pair (CTYPE) nor explicitly in
+     *         degrees (CUNIT), have another unit, or have no usable CD or CDELT values
      */
     public static OptionalDouble pixelScaleArcsec(FitsHeader h) {
+        // Axis values are angles in degrees when the units say so explicitly, or when the axes are a
+        // celestial pair, whose default unit is the degree (Greisen & Calabretta 2002, §2.1.1; Calabretta &
+        // Greisen 2002, §2). Other linear axes ('LINE', 'UNITLESS' ...) have no angular scale.
+        boolean degrees = h.getString("CUNIT1").orElse("").trim().equalsIgnoreCase("deg")
+                && h.getString("CUNIT2").orElse("").trim().equalsIgnoreCase("deg");
+        if (!degrees && !celestial(h.getString("CTYPE1").orElse(""), h.getString("CTYPE2").orElse(""))) {
+            return OptionalDouble.empty();
+        }
         for (String axis : new String[] {"CUNIT1", "CUNIT2"}) {
             String u = h.getString(axis).orElse("deg").trim();
             if (!u.isEmpty() && !u.equalsIgnoreCase("deg")) {
@@ -50,5 +59,24 @@ public final class Wcs {
             return OptionalDouble.empty();
         }
         return OptionalDouble.of(Math.sqrt(det) * ARCSEC_PER_DEG);
+    }
+
+    /**
+     * True if the two axis types are a celestial longitude/latitude pair: {@code RA--}/{@code DEC-} or
+     * {@code xLON}/{@code xLAT} in the first four characters (Calabretta &amp; Greisen 2002, A&amp;A 395,
+     * 1077, §2), in either order.
+     */
+    static boolean celestial(String t1, String t2) {
+        String a = (t1.trim() + "    ").substring(0, 4).toUpperCase(java.util.Locale.ROOT);
+        String b = (t2.trim() + "    ").substring(0, 4).toUpperCase(java.util.Locale.ROOT);
+        return isLon(a) && isLat(b) || isLon(b) && isLat(a);
+    }
+
+    private static boolean isLon(String t) {
+        return t.equals("RA--") || t.endsWith("LON");
+    }
+
+    private static boolean isLat(String t) {
+        return t.equals("DEC-") || t.endsWith("LAT");
     }
 }
