@@ -234,7 +234,7 @@ public final class SharpenCommand implements Callable<Integer> {
         }
         if (model.given()) {
             PsfModel m = model.toModel();
-            return new PsfChoice(m.render(model.size(), model.oversample(), 0, 0), "model " + m.description(), null);
+            return new PsfChoice(m.render(model.autoSize(), model.oversample(), 0, 0), "model " + m.description(), null);
         }
         StarMeasurement m = StarMeasurer.measure(in, measureSettings(settings(in)));
         if (!m.enoughStars() || m.psf() == null) {
