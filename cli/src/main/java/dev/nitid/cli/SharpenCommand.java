@@ -121,6 +121,11 @@ public final class SharpenCommand implements Callable<Integer> {
     @Mixin
     PsfOptions model;
 
+    @Option(names = "--psf-size", paramLabel = "PX",
+            description = "With the model options: side of the PSF stamp in pixels, odd (default: wide enough for "
+                    + "the model's wings).")
+    Integer psfSize;
+
     @Option(names = {"-o", "--output"}, paramLabel = "OUT.fits",
             description = "Where to write the result (float32). Default: IN-sharp.fits next to the input.")
     Path output;
@@ -161,6 +166,7 @@ public final class SharpenCommand implements Callable<Integer> {
     public Integer call() {
         return Failures.run(spec, common, () -> {
             long start = System.nanoTime();
+            Stages stages = new Stages();
             if (iterations != null && iterations < 1) {
                 throw new IllegalArgumentException("--iterations is " + iterations
                         + ", but at least 1 iteration is needed (give a positive count or leave it out)");
@@ -176,14 +182,17 @@ public final class SharpenCommand implements Callable<Integer> {
             checkSideOutput(preview);
             checkSideOutput(report);
             FitsImage in = FitsReader.read(input);
+            stages.mark("read");
             RestoreSettings s = settings(in);
             PsfChoice psf = psf(in);
+            stages.mark("psf");
             Image luminanceIn = luminance(in.image());
             StarMeasurement stars = psf.measurement() != null ? psf.measurement()
                     : StarMeasurer.measure(luminanceIn, measureSettings(s));
             double satLevel = Double.isInfinite(s.saturation()) ? Double.NaN : s.saturation();
             ObservedQuality check = ObservedQuality.of(luminanceIn, stars, satLevel, QualitySettings.defaults(),
                     s.threads());
+            stages.mark("stars for the figures");
 
             PrintWriter err = spec.commandLine().getErr();
             ProgressLine progress = ProgressLine.create(err, System.console() != null, common,
@@ -192,7 +201,9 @@ public final class SharpenCommand implements Callable<Integer> {
             RestorationResult r = Restorers.create(s).restore(in.image(), psf.image(), progress, () -> false);
             progress.finish();
             double restoreSeconds = (System.nanoTime() - restoreStart) / 1e9;
+            stages.mark("restore");
             QualityReport f = check.evaluate(luminance(r.image()));
+            stages.mark("figures");
 
             Optional<PlateScale> scale = model.focalLength != null && model.pixelSize != null
                     ? Optional.of(PlateScale.fromOptics(model.pixelSize, model.focalLength, 1,
@@ -201,11 +212,13 @@ public final class SharpenCommand implements Callable<Integer> {
             FitsHeader h = header(in.header(), s, r, psf, f);
             WriteReport wr = FitsWriter.write(out, r.image(), h,
                     WriteOptions.defaults().withOverwrite(overwrite).withProtectedInputs(protectedInputs()));
+            stages.mark("write");
             if (preview != null) {
                 writePreview(in.image(), r.image(), check, s.threads());
+                stages.mark("preview");
             }
             double seconds = (System.nanoTime() - start) / 1e9;
-            Summary sum = new Summary(in, psf, s, r, f, scale, seconds, restoreSeconds, wr.file());
+            Summary sum = new Summary(in, psf, s, r, f, scale, seconds, restoreSeconds, wr.file(), stages);
             if (report != null) {
                 writeReport(sum);
             }
@@ -234,7 +247,8 @@ public final class SharpenCommand implements Callable<Integer> {
         }
         if (model.given()) {
             PsfModel m = model.toModel();
-            return new PsfChoice(m.render(model.autoSize(), model.oversample(), 0, 0), "model " + m.description(), null);
+            return new PsfChoice(m.render(model.side(psfSize, "--psf-size"), model.oversample(), 0, 0),
+                    "model " + m.description(), null);
         }
         StarMeasurement m = StarMeasurer.measure(in, measureSettings(settings(in)));
         if (!m.enoughStars() || m.psf() == null) {
@@ -381,10 +395,39 @@ public final class SharpenCommand implements Callable<Integer> {
         }
     }
 
+    /** Wall-clock time of each stage of the command, in the order they ran. */
+    static final class Stages {
+        private final java.util.LinkedHashMap<String, Double> seconds = new java.util.LinkedHashMap<>();
+        private long last = System.nanoTime();
+
+        void mark(String name) {
+            long now = System.nanoTime();
+            seconds.merge(name, (now - last) / 1e9, Double::sum);
+            last = now;
+        }
+
+        String text() {
+            StringBuilder b = new StringBuilder();
+            seconds.forEach((k, v) -> {
+                if (v >= 0.05) {
+                    b.append(b.length() == 0 ? "" : ", ").append(k).append(' ')
+                            .append(String.format(Locale.ROOT, "%.1f", v));
+                }
+            });
+            return b.toString();
+        }
+
+        Json json() {
+            Json j = Json.object();
+            seconds.forEach(j::put);
+            return j;
+        }
+    }
+
     /** Everything the summary and the JSON report say. */
     private record Summary(FitsImage in, PsfChoice psf, RestoreSettings s, RestorationResult r,
                            QualityReport f, Optional<PlateScale> scale, double seconds,
-                           double restoreSeconds, Path written) {
+                           double restoreSeconds, Path written, Stages stages) {
 
         double psfFwhm() {
             return PsfFigures.of(psf.image().planeImage(0)).fwhmPx();
@@ -414,8 +457,7 @@ public final class SharpenCommand implements Callable<Integer> {
             }
             line(b, "sky noise", fmt(f.noiseIn(), 3) + " -> " + fmt(f.noiseOut(), 3) + " (ratio "
                     + fmt(f.noiseRatio(), 2) + ")");
-            line(b, "time", fmt(seconds, 1) + " s (restoration " + fmt(restoreSeconds, 1) + " s, "
-                    + s.threads() + " threads)");
+            line(b, "time", fmt(seconds, 1) + " s on " + s.threads() + " threads (" + stages.text() + ")");
             line(b, "wrote", written.toString());
             return b.toString();
         }
@@ -455,7 +497,8 @@ public final class SharpenCommand implements Callable<Integer> {
                     .put("flux_stars", f.flux().stars())
                     .put("threads", s.threads())
                     .put("seconds", seconds)
-                    .put("restore_seconds", restoreSeconds);
+                    .put("restore_seconds", restoreSeconds)
+                    .put("stage_seconds", stages.json());
         }
 
         private static void line(StringBuilder b, String label, String text) {
