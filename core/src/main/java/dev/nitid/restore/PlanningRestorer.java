@@ -77,8 +77,8 @@ final class PlanningRestorer implements Restorer {
                         Image kp = k != null ? k : normalised(psf, 0);
                         double radius = Math.max(StarFloor.MIN_RADIUS,
                                 prot.radiusFactor() * StarFloor.psfRadius(kp.plane(0), kp.width(), kp.height()));
-                        int padX = (plan.gridWidth() - w) / 2;
-                        int padY = (plan.gridHeight() - h) / 2;
+                        int padX = plan.padX();
+                        int padY = plan.padY();
                         floor = StarFloor.build(d, valid, w, h, sky, sigma, prot.detectSigma(), radius,
                                 prot.marginSigma(), plan.gridWidth(), padX, padY, prot.guard() == StarGuard.RING_FLOOR);
                     }

@@ -62,4 +62,19 @@ class StarProtectionTest {
         assertTrue(ring >= -MAX_RING_SIGMA, "sky-floor ring depth " + ring + " σ");
         assertTrue(SCENE.fwhm(guarded) / SCENE.fwhm(SCENE.observed) <= MAX_FWHM_RATIO);
     }
+
+    @Test
+    void ringFloorLinesUpWithTheStarsOnAnExtendedDomainWithAnEvenPsf() {
+        // pins a past bug: the floor's grid offset was (grid − frame)/2, one pixel off for even PSF sizes
+        Image even = Image.create(30, 30);
+        for (int y = 0; y < 30; y++) {
+            for (int x = 0; x < 30; x++) {
+                even.set(x, y, SCENE.psf.get(x, y)); // same centre pixel (15, 15) by the ⌊w/2⌋ rule
+            }
+        }
+        Image out = Restorers.create(RestoreSettings.defaults().withEdges(EdgeHandling.EXTENDED_DOMAIN).withThreads(1))
+                .restore(SCENE.observed, even).image();
+        double ring = SCENE.ringDepth(out);
+        assertTrue(ring >= -MAX_RING_SIGMA, "extended-domain ring depth " + ring + " σ");
+    }
 }

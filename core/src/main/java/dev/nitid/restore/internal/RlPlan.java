@@ -153,6 +153,16 @@ public final class RlPlan implements AutoCloseable {
         return gw;
     }
 
+    /** @return column of frame pixel x = 0 inside the grid */
+    public int padX() {
+        return padX;
+    }
+
+    /** @return row of frame pixel y = 0 inside the grid */
+    public int padY() {
+        return padY;
+    }
+
     /** @return grid rows */
     public int gridHeight() {
         return gh;
