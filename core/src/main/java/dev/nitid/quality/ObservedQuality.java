@@ -313,8 +313,8 @@ public final class ObservedQuality {
                 }
             }
         });
-        // Median and MAD by selection over all n samples (exactly the sorted-order values, in O(n)).
-        double s = Robust.madSigmaInPlace(v, n);
+        // Median and MAD of all n samples, exact, by histogram-located selection (no sort, no subsample).
+        double s = Robust.madSigmaParallel(v, n, threads);
         return integral ? Math.sqrt(Math.max(0, s * s - 1.0 / 12)) : s;
     }
 

@@ -1,5 +1,6 @@
 package dev.nitid.quality.internal;
 
+import dev.nitid.stars.internal.Parallel;
 import java.util.Arrays;
 import java.util.SplittableRandom;
 
@@ -126,6 +127,143 @@ public final class Robust {
             v[i] = Math.abs(v[i] - m);
         }
         return MAD_TO_SIGMA * medianInPlace(v, n);
+    }
+
+    /** Below this many samples the parallel median is plain selection (the histogram would not pay). */
+    static final int PARALLEL_MIN = 1 << 20;
+    /** Bins of the histogram that locates the middle order statistics. */
+    static final int BINS = 1 << 16;
+    /** Fixed blocks of the parallel passes (independent of the thread count). */
+    static final int BLOCKS = 64;
+
+    /**
+     * {@link #madSigmaInPlace} for millions of samples on several threads: the same value exactly (each
+     * median is the exact order statistic, see {@link #medianParallel}), whatever the thread count.
+     *
+     * @param v       samples, finite (input, overwritten with the absolute deviations)
+     * @param n       how many of them to use
+     * @param threads worker threads, ≥ 1
+     * @return 1.4826 · median(|v − median(v)|), NaN if n = 0
+     */
+    public static double madSigmaParallel(double[] v, int n, int threads) {
+        double m = medianParallel(v, n, threads);
+        Parallel.forEach(BLOCKS, threads, (b, worker) -> {
+            for (int i = blockStart(b, n), end = blockStart(b + 1, n); i < end; i++) {
+                v[i] = Math.abs(v[i] - m);
+            }
+        });
+        return MAD_TO_SIGMA * medianParallel(v, n, threads);
+    }
+
+    /**
+     * The exact median of many samples in a few parallel passes instead of a sort: a histogram of
+     * {@link #BINS} equal bins over [min, max] (the bin index is a non-decreasing function of the value, so
+     * the k-th smallest sample lies in the bin where the cumulative count passes k) locates the middle
+     * order statistics; only the samples of that bin are then selected. Integer counts and the exact order
+     * statistic make the result independent of the thread count and of the sample order.
+     *
+     * @param v       samples, finite (input, not modified)
+     * @param n       how many of them to use
+     * @param threads worker threads, ≥ 1
+     * @return the median (mean of the two middle values for even n), NaN if n = 0
+     */
+    public static double medianParallel(double[] v, int n, int threads) {
+        if (n < PARALLEL_MIN) {
+            return medianInPlace(Arrays.copyOf(v, n), n);
+        }
+        int kHi = n / 2;
+        int kLo = n % 2 == 1 ? kHi : kHi - 1;
+        double[] lo = new double[BLOCKS];
+        double[] hi = new double[BLOCKS];
+        Parallel.forEach(BLOCKS, threads, (b, worker) -> {
+            double a = Double.POSITIVE_INFINITY;
+            double z = Double.NEGATIVE_INFINITY;
+            for (int i = blockStart(b, n), end = blockStart(b + 1, n); i < end; i++) {
+                a = Math.min(a, v[i]);
+                z = Math.max(z, v[i]);
+            }
+            lo[b] = a;
+            hi[b] = z;
+        });
+        double min = Double.POSITIVE_INFINITY;
+        double max = Double.NEGATIVE_INFINITY;
+        for (int b = 0; b < BLOCKS; b++) {
+            min = Math.min(min, lo[b]);
+            max = Math.max(max, hi[b]);
+        }
+        if (!(max > min)) {
+            return min;
+        }
+        double vmin = min;
+        double scale = BINS / (max - min);
+        int workers = Math.max(1, Math.min(threads, BLOCKS));
+        int[][] partial = new int[workers][BINS];
+        Parallel.forEach(BLOCKS, workers, (b, worker) -> {
+            int[] hist = partial[worker];
+            for (int i = blockStart(b, n), end = blockStart(b + 1, n); i < end; i++) {
+                hist[bin(v[i], vmin, scale)]++;
+            }
+        });
+        int[] hist = partial[0];
+        for (int w = 1; w < workers; w++) {
+            for (int j = 0; j < BINS; j++) {
+                hist[j] += partial[w][j];
+            }
+        }
+        int bLo = -1;
+        int bHi = -1;
+        long below = 0;
+        long belowHi = 0;
+        for (int j = 0; j < BINS && bHi < 0; j++) {
+            if (bLo < 0 && below + hist[j] > kLo) {
+                bLo = j;
+            }
+            if (below + hist[j] > kHi) {
+                bHi = j;
+                belowHi = below;
+            }
+            below += hist[j];
+        }
+        if (bLo != bHi) {
+            // Adjacent order statistics in different bins: the lower is its bin's largest, the upper its bin's
+            // smallest.
+            double a = Double.NEGATIVE_INFINITY;
+            double z = Double.POSITIVE_INFINITY;
+            for (int i = 0; i < n; i++) {
+                int j = bin(v[i], vmin, scale);
+                if (j == bLo) {
+                    a = Math.max(a, v[i]);
+                } else if (j == bHi) {
+                    z = Math.min(z, v[i]);
+                }
+            }
+            return 0.5 * (a + z);
+        }
+        double[] g = new double[hist[bHi]];
+        int m = 0;
+        for (int i = 0; i < n; i++) {
+            if (bin(v[i], vmin, scale) == bHi) {
+                g[m++] = v[i];
+            }
+        }
+        int kk = (int) (kHi - belowHi);
+        double top = select(g, m, kk);
+        if (kLo == kHi) {
+            return top;
+        }
+        double a = g[0];
+        for (int i = 1; i < kk; i++) {
+            a = Math.max(a, g[i]);
+        }
+        return 0.5 * (a + top);
+    }
+
+    private static int bin(double x, double min, double scale) {
+        return Math.min(BINS - 1, (int) ((x - min) * scale));
+    }
+
+    private static int blockStart(int b, int n) {
+        return (int) ((long) b * n / BLOCKS);
     }
 
     /** Seed of the dither: fixed, so the estimate is reproducible. */
