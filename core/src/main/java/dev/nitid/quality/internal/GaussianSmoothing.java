@@ -65,21 +65,27 @@ public final class GaussianSmoothing {
             double[] acc = new double[width];
             int y1 = Math.min(height, (t + 1) * ROWS_PER_TASK);
             for (int y = t * ROWS_PER_TASK; y < y1; y++) {
-                java.util.Arrays.fill(acc, 0);
-                for (int i = -r; i <= r; i++) {
-                    double kk = k[i + r];
-                    int src = reflect(y + i, height) * width;
-                    for (int x = 0; x < width; x++) {
-                        acc[x] += kk * tmp[src + x];
-                    }
-                }
-                int row = y * width;
-                for (int x = 0; x < width; x++) {
-                    out[row + x] = (float) acc[x];
-                }
+                columnPass(tmp, out, y, width, height, k, r, acc);
             }
         });
         return out;
+    }
+
+    /** One output row of the vertical pass; a method of its own so the JIT compiles it early. */
+    private static void columnPass(float[] tmp, float[] out, int y, int width, int height, double[] k, int r,
+                                   double[] acc) {
+        java.util.Arrays.fill(acc, 0);
+        for (int i = -r; i <= r; i++) {
+            double kk = k[i + r];
+            int src = reflect(y + i, height) * width;
+            for (int x = 0; x < width; x++) {
+                acc[x] += kk * tmp[src + x];
+            }
+        }
+        int row = y * width;
+        for (int x = 0; x < width; x++) {
+            out[row + x] = (float) acc[x];
+        }
     }
 
     private static void rowPass(float[] in, float[] tmp, int row, int width, double[] k, int r) {
