@@ -214,18 +214,18 @@ public final class ObservedQuality {
         // Star wings, filaments and faint galaxies hide below the per-pixel noise but not below the noise of
         // a smoothed image: smoothing by a Gaussian of FWHM 4 px cuts white noise about 6-fold (common
         // practice, no source), so a 0.5 σ cut on the smoothed residual sits ~3 of its own σ above zero.
-        float[] smooth = GaussianSmoothing.smooth(resid, w, h, STRUCTURE_FWHM, threads);
-        int[] count = new int[chunks];
-        Parallel.forEach(chunks, threads, (c, worker) -> {
+        // The smoothed residual is only compared, row by row, as it is made (no full-frame buffer).
+        int[] count = new int[h];
+        GaussianSmoothing.smooth(resid, w, h, STRUCTURE_FWHM, threads, (y, row) -> {
             int k = 0;
-            for (int i = c * CHUNK, end = Math.min(px.length, i + CHUNK); i < end; i++) {
+            for (int x = 0, i = y * w; x < w; x++, i++) {
                 if (sky[i] && (!(Math.abs(resid[i]) <= SKY_CLIP_SIGMA * sigma)
-                        || Math.abs(smooth[i]) > STRUCTURE_SIGMA * sigma)) {
+                        || Math.abs((float) row[x]) > STRUCTURE_SIGMA * sigma)) {
                     sky[i] = false;
                 }
                 k += sky[i] ? 1 : 0;
             }
-            count[c] = k;
+            count[y] = k;
         });
         int n = 0;
         for (int k : count) {
