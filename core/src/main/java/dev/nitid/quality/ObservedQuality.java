@@ -116,20 +116,44 @@ public final class ObservedQuality {
      * @param saturation  level at or above which a pixel is saturated, or NaN if unknown; stars with a
      *                    pixel at or above it within the fit stamp are left out
      * @param settings    the metric constants
-     * @param threads     worker threads for the background map, ≥ 1
+     * @param threads     worker threads, ≥ 1 (the result does not depend on it)
      * @return the reference
      * @throws IllegalArgumentException if no usable star or too little sky is found
      */
     public static ObservedQuality of(Image input, StarMeasurement measurement, double saturation,
                                      QualitySettings settings, int threads) {
+        checkSize(input, measurement);
+        BackgroundMap map = BackgroundMap.estimate(input.plane(0), input.width(), input.height(),
+                BackgroundSettings.defaults(), threads);
+        return of(input, measurement, map, saturation, settings, threads);
+    }
+
+    /**
+     * {@link #of(Image, StarMeasurement, double, QualitySettings, int)} with the input's mesh background map
+     * already estimated (on a 24-megapixel frame the map is most of the cost of building the reference, so
+     * a caller holding it should not pay twice). For the figures to mean what the class comment says, the
+     * map must be {@code BackgroundMap.estimate(plane 0 of input, …, BackgroundSettings.defaults(), …)}.
+     *
+     * @param input       the observed image, plane 0 (input, not modified)
+     * @param measurement stars measured on that plane
+     * @param background  the mesh background map of plane 0 with {@link BackgroundSettings#defaults()}
+     * @param saturation  level at or above which a pixel is saturated, or NaN if unknown
+     * @param settings    the metric constants
+     * @param threads     worker threads, ≥ 1 (the result does not depend on it)
+     * @return the reference
+     * @throws IllegalArgumentException if the sizes differ, or no usable star or too little sky is found
+     */
+    public static ObservedQuality of(Image input, StarMeasurement measurement, BackgroundMap background,
+                                     double saturation, QualitySettings settings, int threads) {
+        checkSize(input, measurement);
         int w = input.width();
         int h = input.height();
-        if (measurement.width() != w || measurement.height() != h) {
-            throw new IllegalArgumentException("the star measurement is for a " + measurement.width() + "x"
-                    + measurement.height() + " image but the input is " + w + "x" + h + ": measure this image");
+        if (background.width() != w || background.height() != h) {
+            throw new IllegalArgumentException("the background map is for a " + background.width() + "x"
+                    + background.height() + " image but the input is " + w + "x" + h + ": estimate it on this image");
         }
+        BackgroundMap map = background;
         float[] px = input.plane(0);
-        BackgroundMap map = BackgroundMap.estimate(px, w, h, BackgroundSettings.defaults(), threads);
         float[] bg = new float[px.length];
         map.subtract(null, bg, threads);
 
@@ -190,18 +214,18 @@ public final class ObservedQuality {
         // Star wings, filaments and faint galaxies hide below the per-pixel noise but not below the noise of
         // a smoothed image: smoothing by a Gaussian of FWHM 4 px cuts white noise about 6-fold (common
         // practice, no source), so a 0.5 σ cut on the smoothed residual sits ~3 of its own σ above zero.
-        float[] smooth = GaussianSmoothing.smooth(resid, w, h, STRUCTURE_FWHM, threads);
-        int[] count = new int[chunks];
-        Parallel.forEach(chunks, threads, (c, worker) -> {
+        // The smoothed residual is only compared, row by row, as it is made (no full-frame buffer).
+        int[] count = new int[h];
+        GaussianSmoothing.smooth(resid, w, h, STRUCTURE_FWHM, threads, (y, row) -> {
             int k = 0;
-            for (int i = c * CHUNK, end = Math.min(px.length, i + CHUNK); i < end; i++) {
+            for (int x = 0, i = y * w; x < w; x++, i++) {
                 if (sky[i] && (!(Math.abs(resid[i]) <= SKY_CLIP_SIGMA * sigma)
-                        || Math.abs(smooth[i]) > STRUCTURE_SIGMA * sigma)) {
+                        || Math.abs((float) row[x]) > STRUCTURE_SIGMA * sigma)) {
                     sky[i] = false;
                 }
                 k += sky[i] ? 1 : 0;
             }
-            count[c] = k;
+            count[y] = k;
         });
         int n = 0;
         for (int k : count) {
@@ -212,6 +236,14 @@ public final class ObservedQuality {
                     + "figures need at least 1000");
         }
         return new ObservedQuality(input, settings, bg, sky, fwhmStars, ringStars, threads);
+    }
+
+    private static void checkSize(Image input, StarMeasurement measurement) {
+        if (measurement.width() != input.width() || measurement.height() != input.height()) {
+            throw new IllegalArgumentException("the star measurement is for a " + measurement.width() + "x"
+                    + measurement.height() + " image but the input is " + input.width() + "x" + input.height()
+                    + ": measure this image");
+        }
     }
 
     private static boolean saturated(Image img, double x, double y, int half, double level) {

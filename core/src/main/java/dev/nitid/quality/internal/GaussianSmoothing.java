@@ -41,6 +41,41 @@ public final class GaussianSmoothing {
      * @return the smoothed pixels, a new array
      */
     public static float[] smooth(float[] in, int width, int height, double fwhm, int threads) {
+        float[] out = new float[in.length];
+        smooth(in, width, height, fwhm, threads, (y, row) -> {
+            for (int x = 0; x < width; x++) {
+                out[y * width + x] = (float) row[x];
+            }
+        });
+        return out;
+    }
+
+    /** Receives the smoothed image one row at a time. */
+    @FunctionalInterface
+    public interface RowSink {
+        /**
+         * Called once per row, from any worker thread (never twice for one row, never concurrently for
+         * one row).
+         *
+         * @param y   the row
+         * @param row its smoothed values before rounding to float (input, valid only during the call)
+         */
+        void accept(int y, double[] row);
+    }
+
+    /**
+     * Smooths like {@link #smooth(float[], int, int, double, int)} but hands each output row to
+     * {@code sink} instead of storing the image, so a caller that only tests the smoothed values saves a
+     * full-frame buffer. The values rounded to float equal those of the stored version bit for bit.
+     *
+     * @param in      pixels, row-major (input, not modified)
+     * @param width   columns
+     * @param height  rows
+     * @param fwhm    Gaussian FWHM in pixels, &gt; 0
+     * @param threads worker threads, ≥ 1 (what the sink receives does not depend on it)
+     * @param sink    receives every row once
+     */
+    public static void smooth(float[] in, int width, int height, double fwhm, int threads, RowSink sink) {
         double sigma = fwhm / (2 * Math.sqrt(2 * Math.log(2)));
         int r = Math.max(1, (int) Math.ceil(TRUNCATE_SIGMA * sigma));
         double[] k = new double[2 * r + 1];
@@ -60,26 +95,26 @@ public final class GaussianSmoothing {
                 rowPass(in, tmp, y * width, width, k, r);
             }
         });
-        float[] out = new float[in.length];
         Parallel.forEach(tasks, threads, (t, worker) -> {
             double[] acc = new double[width];
             int y1 = Math.min(height, (t + 1) * ROWS_PER_TASK);
             for (int y = t * ROWS_PER_TASK; y < y1; y++) {
-                java.util.Arrays.fill(acc, 0);
-                for (int i = -r; i <= r; i++) {
-                    double kk = k[i + r];
-                    int src = reflect(y + i, height) * width;
-                    for (int x = 0; x < width; x++) {
-                        acc[x] += kk * tmp[src + x];
-                    }
-                }
-                int row = y * width;
-                for (int x = 0; x < width; x++) {
-                    out[row + x] = (float) acc[x];
-                }
+                columnPass(tmp, y, width, height, k, r, acc);
+                sink.accept(y, acc);
             }
         });
-        return out;
+    }
+
+    /** One output row of the vertical pass; a method of its own so the JIT compiles it early. */
+    private static void columnPass(float[] tmp, int y, int width, int height, double[] k, int r, double[] acc) {
+        java.util.Arrays.fill(acc, 0);
+        for (int i = -r; i <= r; i++) {
+            double kk = k[i + r];
+            int src = reflect(y + i, height) * width;
+            for (int x = 0; x < width; x++) {
+                acc[x] += kk * tmp[src + x];
+            }
+        }
     }
 
     private static void rowPass(float[] in, float[] tmp, int row, int width, double[] k, int r) {
