@@ -73,6 +73,9 @@ import picocli.CommandLine.Spec;
             "  NTDMETH  method, NTDITER iterations run, NTDSTOP why it stopped, NTDEDGE edge handling,",
             "  NTDGUARD star protection, NTDPSF PSF file name."})
 public final class SharpenCommand implements Callable<Integer> {
+    /** The preview's faint-region crop looks for smooth light this many sky σ above the sky. */
+    static final double FAINT_SIGMA = 4;
+
     /** The method names the command accepts. */
     enum MethodName {
         /** Richardson-Lucy with total-variation regularisation, the default. */
@@ -325,21 +328,22 @@ public final class SharpenCommand implements Callable<Integer> {
     }
 
     /**
-     * The centre of the mesh cell whose smooth background is highest: faint nebulosity if there is any,
-     * else plain sky.
+     * The centre of the mesh cell whose smooth background is closest to {@value #FAINT_SIGMA} sky σ above the
+     * sky: faint extended light if there is any, else plain sky.
      */
     private static int[] faintRegion(Image lum, int threads) {
         BackgroundMap map = BackgroundMap.estimate(lum.plane(0), lum.width(), lum.height(),
                 BackgroundSettings.defaults(), Math.max(1, threads));
+        double target = map.globalLevel() + FAINT_SIGMA * map.globalNoise();
         int step = Math.max(1, map.meshSize());
         int[] best = {lum.width() / 2, lum.height() / 2};
-        double top = Double.NEGATIVE_INFINITY;
+        double closest = Double.POSITIVE_INFINITY;
         int margin = ComparisonPreview.CROP;
         for (int y = Math.min(margin, lum.height() / 2); y < lum.height() - margin; y += step) {
             for (int x = Math.min(margin, lum.width() / 2); x < lum.width() - margin; x += step) {
-                double v = map.levelAt(x, y);
-                if (v > top) {
-                    top = v;
+                double miss = Math.abs(map.levelAt(x, y) - target);
+                if (miss < closest) {
+                    closest = miss;
                     best = new int[] {x, y};
                 }
             }
