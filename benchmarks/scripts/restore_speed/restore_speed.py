@@ -14,7 +14,7 @@ Run from the repository root after `mvn -o -q -pl benchmarks -am package -DskipT
 (/usr/bin/python3 is the Debian interpreter that sees the python3-* packages.)
 
 Versions used for the recorded figures: Debian 12 python3-numpy 1.24.2, python3-scipy 1.10.1,
-python3-skimage 0.19.3; see notes/restore.md.
+python3-skimage 0.19.3; see docs/restore.md.
 """
 import argparse
 import json

@@ -177,7 +177,7 @@ public final class PsfCommand implements Callable<Integer> {
         return model.description();
     }
 
-    /** Every model parameter, the rendering settings, the derived figures and HISTORY (keywords in notes/psf.md). */
+    /** Every model parameter, the rendering settings, the derived figures and HISTORY (keywords in docs/psf.md). */
     static FitsHeader header(PsfModel model, PsfFigures f, int size, int os) {
         FitsHeader h = FitsHeader.empty();
         for (PsfParameter p : model.parameters()) {

@@ -125,7 +125,7 @@ class PsfCommandTest {
     @Test
     void optionRulesAndAutomaticSize() throws Exception {
         Path f = dir.resolve("s.fits");
-        // automatic side: ±3 FWHM for a Gaussian (notes/psf.md), so FWHM 3 → 2·9 + 1 = 19
+        // automatic side: ±3 FWHM for a Gaussian (docs/psf.md), so FWHM 3 → 2·9 + 1 = 19
         Run g = run("psf", "--model", "gaussian", "--fwhm", "3", "-o", f.toString());
         assertEquals(0, g.code(), g.err());
         assertEquals(19, FitsReader.read(f).image().width());

@@ -26,7 +26,7 @@ import dev.nitid.image.Image;
  * {@link Tiling#AUTO} the rule is: tiles when the whole-plane FFT grid has at least 768² pixels
  * and a tile smaller than it exists, the whole plane otherwise. The tile side per axis is the power
  * of two in [128, 1024] minimising {@code ⌈n/(T − p + 1)⌉ · T · (log₂T + 3.5)}. Measured on one
- * thread (CPU time, {@code notes/fft.md}): 1024² image, 31² PSF: whole 49 ms, 256² tiles 22 ms;
+ * thread (CPU time, {@code docs/fft.md}): 1024² image, 31² PSF: whole 49 ms, 256² tiles 22 ms;
  * 4096²: whole 491 ms, tiles 303 ms; 512²: whole 9.0 ms, tiles 9.5 ms.
  *
  * <h2>Cost, memory and threads</h2>
@@ -44,11 +44,11 @@ import dev.nitid.image.Image;
 public final class Convolver implements AutoCloseable {
     /** Smallest whole-plane FFT grid (pixels) for which {@link Tiling#AUTO} chooses tiles: 768². */
     static final long AUTO_TILE_MIN_PIXELS = 768L * 768;
-    /** Smallest tile side considered: below it per-tile overhead dominates (measured, notes/fft.md). */
+    /** Smallest tile side considered: below it per-tile overhead dominates (measured, docs/fft.md). */
     static final int MIN_TILE = 128;
     /** Largest tile side considered (pixels): 1024 × 1026 floats ≈ 4 MB, about a last-level cache. */
     static final int MAX_TILE = 1024;
-    /** Per-row cost of a tile in units of one radix-2 stage, fitted to the measurements in notes/fft.md. */
+    /** Per-row cost of a tile in units of one radix-2 stage, fitted to the measurements in docs/fft.md. */
     static final double TILE_OVERHEAD = 3.5;
 
     private final int width;
@@ -92,7 +92,7 @@ public final class Convolver implements AutoCloseable {
      * The tile side for one axis: the power of two {@code T} in [{@value #MIN_TILE}, {@value #MAX_TILE}]
      * (and {@code T ≥ 2p}) minimising {@code ⌈n/(T − p + 1)⌉ · T · (log₂T + }{@value #TILE_OVERHEAD}{@code )};
      * the whole-plane size if no such tile is smaller than it. Powers of two because JTransforms' split-radix
-     * code runs them 1.5–2× faster per {@code n log n} than its mixed-radix code (measured in notes/fft.md);
+     * code runs them 1.5–2× faster per {@code n log n} than its mixed-radix code (measured in docs/fft.md);
      * the constant term stands for per-row work (copies, multiply) and was fitted to the same measurements.
      */
     static int tileSize(int n, int p, int whole) {

@@ -84,7 +84,7 @@ public interface PsfModel {
 
     /**
      * Every parameter of the model, in a stable order, as short keywords with values and comments
-     * (ready to write into a FITS header; see {@code notes/psf.md} for the list).
+     * (ready to write into a FITS header; see {@code docs/psf.md} for the list).
      *
      * @return the parameters
      */

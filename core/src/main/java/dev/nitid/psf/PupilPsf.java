@@ -26,7 +26,7 @@ import java.util.OptionalDouble;
  * and the others every 360°/N; a '+' spider of two full-diameter bars is 4 vanes.
  *
  * <p>Accuracy is set by {@code pupilSamples}, the fewest samples across the pupil diameter
- * (default {@value #DEFAULT_PUPIL_SAMPLES}); see {@code notes/psf.md} for measured errors.
+ * (default {@value #DEFAULT_PUPIL_SAMPLES}); see {@code docs/psf.md} for measured errors.
  *
  * @param apertureMm    aperture diameter D, mm
  * @param obstruction   central obstruction ratio ε (obstruction diameter / D), 0 ≤ ε &lt; 1
@@ -48,7 +48,7 @@ public record PupilPsf(double apertureMm, double obstruction, int vanes, double 
 
     /**
      * Default fewest pupil samples across the diameter. Edges are grey, so 128 samples keep the pattern within
-     * 2e-4 of the peak of the analytic (annular) Airy pattern out to 10 λ/D (measured; notes/psf.md).
+     * 2e-4 of the peak of the analytic (annular) Airy pattern out to 10 λ/D (measured; docs/psf.md).
      */
     public static final int DEFAULT_PUPIL_SAMPLES = 128;
 

@@ -22,7 +22,7 @@ public record RestoreSettings(Method method, EdgeHandling edges, Stopping stoppi
                               double dampingSigma, double regularisation, int threads) {
     /**
      * Default λ of TV-regularised RL: twice the 0.002 of Dey et al. (2006, Microsc. Res. Tech. 69, 260),
-     * the best of 0.002 / 0.004 / 0.008 on the quality harness's two scenes (notes/restore.md).
+     * the best of 0.002 / 0.004 / 0.008 on the quality harness's two scenes (docs/restore.md).
      */
     public static final double DEFAULT_TV_WEIGHT = 0.004;
     /** Default damping threshold T, in σ (White 1994 suggests a few σ; from memory). */
@@ -59,7 +59,7 @@ public record RestoreSettings(Method method, EdgeHandling edges, Stopping stoppi
     }
 
     /**
-     * The best general setting we measured on the quality harness (see notes/restore.md): TV-regularised
+     * The best general setting we measured on the quality harness (see docs/restore.md): TV-regularised
      * Richardson–Lucy (λ = {@value #DEFAULT_TV_WEIGHT}), reflective edges, stop at χ²/N = 1, noise model estimated from the sky, ring floor around bright
      * stars, all available cores.
      *

@@ -31,14 +31,14 @@ public record StarProtection(StarGuard guard, double detectSigma, double radiusF
         return new StarProtection(StarGuard.NONE, 30, 1.5, 0.5);
     }
 
-    /** @return the sky floor with the default parameters (tuned on synthetic fields, see notes/restore.md) */
+    /** @return the sky floor with the default parameters (tuned on synthetic fields, see docs/restore.md) */
     public static StarProtection skyFloor() {
         return new StarProtection(StarGuard.SKY_FLOOR, 30, 1.5, 0.5);
     }
 
     /**
      * The ring floor with the default parameters: stars above 30 σ, discs of 1.5 PSF radii, annuli kept at or
-     * above the local sky − 0.25 σ. The margin was tuned on the quality harness (notes/restore.md): 0.5 σ left
+     * above the local sky − 0.25 σ. The margin was tuned on the quality harness (docs/restore.md): 0.5 σ left
      * rings of 1.3 σ on the seeing scene, 0 σ reached 0.7 σ but moved 2.6 % of the diffraction stars' light
      * out of the photometric aperture; 0.25 σ gives 1.0 σ and 0.5 σ rings with fluxes at their ideal.
      *

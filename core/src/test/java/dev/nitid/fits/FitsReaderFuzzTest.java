@@ -18,7 +18,7 @@ import java.nio.file.Path;
  * {@code src/test/resources/dev/nitid/fits/FitsReaderFuzzTestInputs/readAnyBytes/} (seeds: astropy golden
  * files, hostile corpus samples, and every past finding) as a regression test. To fuzz:
  * {@code JAZZER_FUZZ=1 mvn -o -pl core test -Dtest=FitsReaderFuzzTest -Djazzer.max_duration=5m}
- * (see notes/fits.md); new findings land in that folder and must be kept there.
+ * (see docs/fits.md); new findings land in that folder and must be kept there.
  */
 class FitsReaderFuzzTest {
     private static final Path FILE;

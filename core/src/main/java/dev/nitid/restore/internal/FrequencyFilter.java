@@ -42,14 +42,14 @@ public final class FrequencyFilter implements AutoCloseable {
      * needs a signal at least as strong as the noise before the filter amplifies it (over-subtraction in
      * spectral subtraction, Berouti, Schwartz &amp; Makhoul 1979, ICASSP, from memory). Without it, rings
      * where the measured power exceeds the noise by chance get gains of 1/H near the band limit, and a
-     * band-limited (diffraction) PSF blows up; measured on the quality harness (notes/restore.md).
+     * band-limited (diffraction) PSF blows up; measured on the quality harness (docs/restore.md).
      */
     public static final double NOISE_OVERSUBTRACTION = 2.0;
     /**
      * When K is estimated, it is raised where needed to a floor that keeps the filter's white-noise gain at
      * or below this (the acceptance bound of issue 5 on the sky-noise ratio; our choice). On star fields
      * the stars' power is flat and strong, so the per-frequency estimate alone approaches 1/H and
-     * multiplies the sky noise tens of times (measured on the quality harness, notes/restore.md).
+     * multiplies the sky noise tens of times (measured on the quality harness, docs/restore.md).
      */
     public static final double MAX_NOISE_GAIN = 1.5;
 
