@@ -53,7 +53,7 @@ public final class PsfCommand implements Callable<Integer> {
     @Mixin
     PsfOptions psf;
 
-    @Option(names = "--size", paramLabel = "PX",
+    @Option(names = {"--size", "--psf-size"}, paramLabel = "PX",
             description = "PSF image side in pixels, odd (default: chosen from the model to hold its wings).")
     Integer size;
 

@@ -186,7 +186,7 @@ public final class SharpenCommand implements Callable<Integer> {
             RestoreSettings s = settings(in);
             PsfChoice psf = psf(in);
             stages.mark("psf");
-            Image luminanceIn = luminance(in.image());
+            Image luminanceIn = StarMeasurer.luminance(in.image());
             StarMeasurement stars = psf.measurement() != null ? psf.measurement()
                     : StarMeasurer.measure(luminanceIn, measureSettings(s));
             double satLevel = Double.isInfinite(s.saturation()) ? Double.NaN : s.saturation();
@@ -202,7 +202,7 @@ public final class SharpenCommand implements Callable<Integer> {
             progress.finish();
             double restoreSeconds = (System.nanoTime() - restoreStart) / 1e9;
             stages.mark("restore");
-            QualityReport f = check.evaluate(luminance(r.image()));
+            QualityReport f = check.evaluate(StarMeasurer.luminance(r.image()));
             stages.mark("figures");
 
             Optional<PlateScale> scale = model.focalLength != null && model.pixelSize != null
@@ -267,22 +267,6 @@ public final class SharpenCommand implements Callable<Integer> {
         return Double.isFinite(s.saturation()) ? ms.withSaturation(s.saturation()) : ms;
     }
 
-    /** The mean of the planes: stars are measured and the summary computed on it for colour cubes. */
-    static Image luminance(Image img) {
-        if (img.planes() == 1) {
-            return img;
-        }
-        Image l = Image.create(img.width(), img.height());
-        float[] dst = l.plane(0);
-        for (int p = 0; p < img.planes(); p++) {
-            float[] src = img.plane(p);
-            for (int i = 0; i < dst.length; i++) {
-                dst[i] += src[i] / img.planes();
-            }
-        }
-        return l;
-    }
-
     /** {@code IN-sharp.fits} beside the input, with the FITS or gzip extension replaced. */
     static Path defaultOutput(Path in) {
         String name = in.getFileName().toString();
@@ -323,7 +307,7 @@ public final class SharpenCommand implements Callable<Integer> {
     }
 
     private void writePreview(Image before, Image after, ObservedQuality check, int threads) throws FitsException {
-        Image lum = luminance(before);
+        Image lum = StarMeasurer.luminance(before);
         AsinhStretch stretch = AsinhStretch.forSky(lum.stats(0));
         List<int[]> crops = new ArrayList<>();
         for (StarSite st : check.fwhmStars().subList(0, Math.min(3, check.fwhmStars().size()))) {
@@ -531,34 +515,12 @@ public final class SharpenCommand implements Callable<Integer> {
             case pixels -> StarProtection.skyFloor();
             case none -> StarProtection.none();
         });
-        OptionalDouble level = saturation != null ? OptionalDouble.of(saturation) : headerSaturation(in);
+        OptionalDouble level = saturation != null ? OptionalDouble.of(saturation)
+                : StarMeasurer.saturationLevel(in.header(), in.bitpix());
         if (level.isPresent()) {
             s = s.withSaturation(level.getAsDouble());
         }
         return s;
-    }
-
-    /**
-     * The SATURATE card (common practice, no source), else the largest value of an integer data type
-     * (FITS Standard 4.0, Table 8 and §5.3: physical = BZERO + BSCALE·stored).
-     */
-    static OptionalDouble headerSaturation(FitsImage in) {
-        OptionalDouble sat = in.header().getDouble("SATURATE");
-        if (sat.isPresent() && sat.getAsDouble() > 0) {
-            return sat;
-        }
-        double bzero = in.header().getDouble("BZERO").orElse(0);
-        double bscale = in.header().getDouble("BSCALE").orElse(1);
-        double stored = switch (in.bitpix()) {
-            case 8 -> 255;
-            case 16 -> 32767;
-            case 32 -> 2147483647.0;
-            default -> Double.NaN;
-        };
-        if (Double.isNaN(stored) || !(bscale > 0)) {
-            return OptionalDouble.empty();
-        }
-        return OptionalDouble.of(bzero + bscale * stored);
     }
 
     private FitsHeader header(FitsHeader h, RestoreSettings s, RestorationResult r, PsfChoice psf,

@@ -205,12 +205,12 @@ public final class SimulateCommand implements Callable<Integer> {
         WriteOptions opts = WriteOptions.defaults().withOverwrite(overwrite)
                 .withProtectedInputs(protectedInputs.toArray(Path[]::new));
         WriteReport obs = FitsWriter.write(output, f.observed(),
-                header.with("IMAGETYP", "observed", "noisy stacked image"), opts.withBitpix(bitpix));
+                header.with("SIMROLE", "observed", "noisy stacked image"), opts.withBitpix(bitpix));
         FitsWriter.write(truthPath, f.truth(),
-                header.with("IMAGETYP", "truth", "unblurred stars and extended structure, no sky").with("BUNIT", "adu", ""),
+                header.with("SIMROLE", "truth", "unblurred stars and extended structure, no sky").with("BUNIT", "adu", ""),
                 opts.withBitpix(-32));
         FitsWriter.write(psfPath, f.psf(),
-                header.with("IMAGETYP", "psf", "unit-sum PSF at the field centre"), opts.withBitpix(-32));
+                header.with("SIMROLE", "psf", "unit-sum PSF at the field centre"), opts.withBitpix(-32));
         Files.writeString(csvPath, TruthCatalogue.toCsv(f.catalogue()), StandardCharsets.UTF_8);
 
         PrintWriter out = spec.commandLine().getOut();

@@ -59,11 +59,11 @@ class SimulateCommandTest {
         assertEquals(-32, obs.bitpix());
         assertEquals(5.0, obs.header().getDouble("SIMSEED").orElseThrow());
         assertEquals(12.0, obs.header().getDouble("NSTARS").orElseThrow());
-        assertEquals("observed", obs.header().getString("IMAGETYP").orElseThrow());
+        assertEquals("observed", obs.header().getString("SIMROLE").orElseThrow());
         assertEquals(2.5, obs.header().getDouble("PSFFWHMA").orElseThrow(), "the psf command's keywords");
         assertEquals("moffat", obs.header().getString("PSFMODEL").orElseThrow());
         FitsImage truth = FitsReader.read(dir.resolve("field-truth.fits"));
-        assertEquals("truth", truth.header().getString("IMAGETYP").orElseThrow());
+        assertEquals("truth", truth.header().getString("SIMROLE").orElseThrow());
         FitsImage psf = FitsReader.read(dir.resolve("field-psf.fits"));
         double sum = 0;
         for (float v : psf.image().plane(0)) {

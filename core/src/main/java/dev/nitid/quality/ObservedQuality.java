@@ -10,6 +10,7 @@ import dev.nitid.stars.MeasureSettings;
 import dev.nitid.stars.MeasuredStar;
 import dev.nitid.stars.StarMeasurement;
 import dev.nitid.stars.StarMeasurer;
+import dev.nitid.stars.internal.Parallel;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
@@ -45,6 +46,11 @@ public final class ObservedQuality {
     static final double STRUCTURE_SIGMA = 0.5;
     /** Sky pixels keep at least this many pixels, and 3 FWHM, from every detection. */
     static final double MIN_CLEAR_RADIUS = 8.0;
+    /**
+     * Pixels per parallel chunk of the full-frame passes. Chunks are fixed by the image size alone, and each
+     * writes only its own slots, so the figures are identical for any thread count.
+     */
+    static final int CHUNK = 1 << 16;
 
     private final Image input;
     private final QualitySettings settings;
@@ -55,18 +61,34 @@ public final class ObservedQuality {
     private final double inputSigma;
     private final double inputFwhm;
     private final double apertureRadius;
+    private final int threads;
+    /** Input FWHM of each FWHM star (NaN where the fit failed): the input side, fitted once. */
+    private final double[] inputFwhms;
+    /** Input aperture flux of each FWHM star (NaN where the annulus leaves the image). */
+    private final double[] inputFluxes;
 
     private ObservedQuality(Image input, QualitySettings settings, float[] background, boolean[] skyMask,
-                            List<StarSite> fwhmStars, List<StarSite> ringStars) {
+                            List<StarSite> fwhmStars, List<StarSite> ringStars, int threads) {
         this.input = input;
         this.settings = settings;
         this.background = background;
         this.skyMask = skyMask;
+        this.threads = threads;
         this.fwhmStars = List.copyOf(fwhmStars);
         this.ringStars = List.copyOf(ringStars);
         this.inputSigma = skyNoise(input);
-        this.inputFwhm = QualityMetrics.medianFwhm(input, this.fwhmStars, settings.fitStamp());
+        this.inputFwhms = fitAll(input, this.fwhmStars, settings.fitStamp(), threads);
+        this.inputFwhm = QualityMetrics.medianFwhm(inputFwhms);
         this.apertureRadius = Math.max(settings.apertureFwhm() * inputFwhm, settings.apertureMin());
+        this.inputFluxes = new double[this.fwhmStars.size()];
+        Parallel.forEach(inputFluxes.length, threads, (i, worker) ->
+                inputFluxes[i] = QualityMetrics.aperture(input, this.fwhmStars.get(i), apertureRadius, settings));
+    }
+
+    private static double[] fitAll(Image img, List<StarSite> stars, int stamp, int threads) {
+        double[] f = new double[stars.size()];
+        Parallel.forEach(f.length, threads, (i, worker) -> f[i] = QualityMetrics.fitFwhm(img, stars.get(i), stamp));
+        return f;
     }
 
     /**
@@ -112,11 +134,17 @@ public final class ObservedQuality {
         map.subtract(null, bg, threads);
 
         List<Detection> det = measurement.detections();
+        List<MeasuredStar> all = measurement.stars();
+        boolean[] keep = new boolean[all.size()];
+        Parallel.forEach(all.size(), threads, (i, worker) -> {
+            MeasuredStar s = all.get(i);
+            keep[i] = s.snr() >= settings.minPeakSigma() && isolated(s, det, settings)
+                    && !saturated(input, s.x(), s.y(), settings.fitStamp() / 2, saturation);
+        });
         List<MeasuredStar> chosen = new ArrayList<>();
-        for (MeasuredStar s : measurement.stars()) {
-            if (s.snr() >= settings.minPeakSigma() && isolated(s, det, settings)
-                    && !saturated(input, s.x(), s.y(), settings.fitStamp() / 2, saturation)) {
-                chosen.add(s);
+        for (int i = 0; i < keep.length; i++) {
+            if (keep[i]) {
+                chosen.add(all.get(i));
             }
         }
         chosen.sort(Comparator.comparingDouble((MeasuredStar s) -> s.gaussian().flux()).reversed());
@@ -153,25 +181,37 @@ public final class ObservedQuality {
         }
         double sigma = measurement.backgroundNoise();
         float[] resid = new float[px.length];
-        for (int i = 0; i < px.length; i++) {
-            resid[i] = Float.isFinite(px[i]) ? px[i] - bg[i] : 0f;
-        }
+        int chunks = (px.length + CHUNK - 1) / CHUNK;
+        Parallel.forEach(chunks, threads, (c, worker) -> {
+            for (int i = c * CHUNK, end = Math.min(px.length, i + CHUNK); i < end; i++) {
+                resid[i] = Float.isFinite(px[i]) ? px[i] - bg[i] : 0f;
+            }
+        });
         // Star wings, filaments and faint galaxies hide below the per-pixel noise but not below the noise of
         // a smoothed image: smoothing by a Gaussian of FWHM 4 px cuts white noise about 6-fold (common
         // practice, no source), so a 0.5 σ cut on the smoothed residual sits ~3 of its own σ above zero.
-        float[] smooth = GaussianSmoothing.smooth(resid, w, h, STRUCTURE_FWHM);
-        int n = 0;
-        for (int i = 0; i < px.length; i++) {
-            if (sky[i] && (!(Math.abs(resid[i]) <= SKY_CLIP_SIGMA * sigma) || Math.abs(smooth[i]) > STRUCTURE_SIGMA * sigma)) {
-                sky[i] = false;
+        float[] smooth = GaussianSmoothing.smooth(resid, w, h, STRUCTURE_FWHM, threads);
+        int[] count = new int[chunks];
+        Parallel.forEach(chunks, threads, (c, worker) -> {
+            int k = 0;
+            for (int i = c * CHUNK, end = Math.min(px.length, i + CHUNK); i < end; i++) {
+                if (sky[i] && (!(Math.abs(resid[i]) <= SKY_CLIP_SIGMA * sigma)
+                        || Math.abs(smooth[i]) > STRUCTURE_SIGMA * sigma)) {
+                    sky[i] = false;
+                }
+                k += sky[i] ? 1 : 0;
             }
-            n += sky[i] ? 1 : 0;
+            count[c] = k;
+        });
+        int n = 0;
+        for (int k : count) {
+            n += k;
         }
         if (n < 1000) {
             throw new IllegalArgumentException("only " + n + " star-free sky pixels in the input: the noise "
                     + "figures need at least 1000");
         }
-        return new ObservedQuality(input, settings, bg, sky, fwhmStars, ringStars);
+        return new ObservedQuality(input, settings, bg, sky, fwhmStars, ringStars, threads);
     }
 
     private static boolean saturated(Image img, double x, double y, int half, double level) {
@@ -224,29 +264,57 @@ public final class ObservedQuality {
 
     private double skyNoise(Image img) {
         float[] px = img.plane(0);
-        double[] v = new double[px.length];
-        boolean integral = true;
-        int n = 0;
-        for (int i = 0; i < px.length; i++) {
-            if (skyMask[i] && Float.isFinite(px[i])) {
-                integral &= px[i] == Math.rint(px[i]);
-                v[n++] = px[i];
+        int chunks = (px.length + CHUNK - 1) / CHUNK;
+        // Pass 1: how many samples each chunk gives, and whether they are all whole numbers.
+        int[] start = new int[chunks + 1];
+        boolean[] whole = new boolean[chunks];
+        Parallel.forEach(chunks, threads, (c, worker) -> {
+            int k = 0;
+            boolean integral = true;
+            for (int i = c * CHUNK, end = Math.min(px.length, i + CHUNK); i < end; i++) {
+                if (skyMask[i] && Float.isFinite(px[i])) {
+                    integral &= px[i] == Math.rint(px[i]);
+                    k++;
+                }
             }
+            start[c + 1] = k;
+            whole[c] = integral;
+        });
+        boolean integral = true;
+        for (int c = 0; c < chunks; c++) {
+            start[c + 1] += start[c];
+            integral &= whole[c];
         }
+        int n = start[chunks];
+        // Pass 2: the samples in raster order, each chunk into its own slots.
+        double[] v = new double[n];
+        Parallel.forEach(chunks, threads, (c, worker) -> {
+            int k = start[c];
+            for (int i = c * CHUNK, end = Math.min(px.length, i + CHUNK); i < end; i++) {
+                if (skyMask[i] && Float.isFinite(px[i])) {
+                    v[k++] = px[i];
+                }
+            }
+        });
         // Quantised data: dither the raw whole numbers (see Robust.madSigmaDequantised), then subtract the
-        // background; the dither's 1/12 variance is removed in quadrature.
+        // background; the dither's 1/12 variance is removed in quadrature. The dither is one seeded sequence
+        // in raster order, drawn on one thread, so it does not depend on the thread count.
         if (integral && n > 0) {
             java.util.SplittableRandom rnd = new java.util.SplittableRandom(DITHER_SEED);
             for (int i = 0; i < n; i++) {
                 v[i] += rnd.nextDouble() - 0.5;
             }
         }
-        for (int i = 0, k = 0; i < px.length; i++) {
-            if (skyMask[i] && Float.isFinite(px[i])) {
-                v[k++] -= background[i];
+        Parallel.forEach(chunks, threads, (c, worker) -> {
+            int k = start[c];
+            for (int i = c * CHUNK, end = Math.min(px.length, i + CHUNK); i < end; i++) {
+                if (skyMask[i] && Float.isFinite(px[i])) {
+                    v[k++] -= background[i];
+                }
             }
-        }
-        double s = Robust.madSigma(v, n);
+        });
+        // Median and MAD of all n samples, exact, by histogram-located selection (no sort, no subsample).
+        double s = Robust.madSigmaParallel(v, n, threads);
         return integral ? Math.sqrt(Math.max(0, s * s - 1.0 / 12)) : s;
     }
 
@@ -261,9 +329,14 @@ public final class ObservedQuality {
             throw new IllegalArgumentException("output is " + output.width() + "x" + output.height()
                     + " but the input is " + input.width() + "x" + input.height() + ": score a same-size restoration");
         }
-        QualityMetrics.FwhmComparison fwhm = QualityMetrics.fwhmRatio(input, output, fwhmStars, settings.fitStamp());
+        // The input side (FWHMs, aperture fluxes, sky σ) was measured once in the constructor.
+        double[] outFwhms = fitAll(output, fwhmStars, settings.fitStamp(), threads);
+        double[] outFluxes = new double[fwhmStars.size()];
+        Parallel.forEach(outFluxes.length, threads, (i, worker) ->
+                outFluxes[i] = QualityMetrics.aperture(output, fwhmStars.get(i), apertureRadius, settings));
+        QualityMetrics.FwhmComparison fwhm = QualityMetrics.fwhmRatio(inputFwhms, outFwhms);
         QualityMetrics.RingDepth ring = QualityMetrics.ringDepth(output, ringStars, inputSigma, settings);
-        QualityMetrics.FluxComparison flux = QualityMetrics.fluxRatio(input, output, fwhmStars, apertureRadius, settings);
+        QualityMetrics.FluxComparison flux = QualityMetrics.fluxRatio(inputFluxes, outFluxes, apertureRadius);
         double noiseOut = skyNoise(output);
         QualityMetrics.TruthError none = new QualityMetrics.TruthError(Double.NaN, Double.NaN, Double.NaN, 0);
         return new QualityReport(fwhm, ring, none, none, Double.NaN, flux, inputSigma, noiseOut, noiseOut / inputSigma);

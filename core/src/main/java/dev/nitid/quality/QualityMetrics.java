@@ -69,13 +69,24 @@ public final class QualityMetrics {
      * @return the median ratio, the median FWHMs and the number of stars used
      */
     public static FwhmComparison fwhmRatio(Image input, Image output, List<StarSite> stars, int stamp) {
-        double[] ratio = new double[stars.size()];
-        double[] fin = new double[stars.size()];
-        double[] fout = new double[stars.size()];
+        double[] in = new double[stars.size()];
+        double[] out = new double[stars.size()];
+        for (int i = 0; i < in.length; i++) {
+            in[i] = fitFwhm(input, stars.get(i), stamp);
+            out[i] = fitFwhm(output, stars.get(i), stamp);
+        }
+        return fwhmRatio(in, out);
+    }
+
+    /** {@link #fwhmRatio(Image, Image, List, int)} from per-star fits already made (NaN for a failed fit). */
+    static FwhmComparison fwhmRatio(double[] inFwhm, double[] outFwhm) {
+        double[] ratio = new double[inFwhm.length];
+        double[] fin = new double[inFwhm.length];
+        double[] fout = new double[inFwhm.length];
         int n = 0;
-        for (StarSite s : stars) {
-            double a = fitFwhm(input, s, stamp);
-            double b = fitFwhm(output, s, stamp);
+        for (int i = 0; i < inFwhm.length; i++) {
+            double a = inFwhm[i];
+            double b = outFwhm[i];
             if (Double.isFinite(a) && Double.isFinite(b) && a > 0 && b > 0) {
                 fin[n] = a;
                 fout[n] = b;
@@ -96,9 +107,17 @@ public final class QualityMetrics {
      */
     public static double medianFwhm(Image image, List<StarSite> stars, int stamp) {
         double[] f = new double[stars.size()];
+        for (int i = 0; i < f.length; i++) {
+            f[i] = fitFwhm(image, stars.get(i), stamp);
+        }
+        return medianFwhm(f);
+    }
+
+    /** {@link #medianFwhm(Image, List, int)} from per-star fits already made (NaN for a failed fit). */
+    static double medianFwhm(double[] fits) {
+        double[] f = new double[fits.length];
         int n = 0;
-        for (StarSite s : stars) {
-            double v = fitFwhm(image, s, stamp);
+        for (double v : fits) {
             if (Double.isFinite(v) && v > 0) {
                 f[n++] = v;
             }
@@ -282,11 +301,22 @@ public final class QualityMetrics {
      */
     public static FluxComparison fluxRatio(Image input, Image output, List<StarSite> stars, double radius,
                                            QualitySettings settings) {
-        double[] ratios = new double[stars.size()];
+        double[] in = new double[stars.size()];
+        double[] out = new double[stars.size()];
+        for (int i = 0; i < in.length; i++) {
+            in[i] = aperture(input, stars.get(i), radius, settings);
+            out[i] = aperture(output, stars.get(i), radius, settings);
+        }
+        return fluxRatio(in, out, radius);
+    }
+
+    /** {@link #fluxRatio(Image, Image, List, double, QualitySettings)} from per-star fluxes already measured. */
+    static FluxComparison fluxRatio(double[] inFlux, double[] outFlux, double radius) {
+        double[] ratios = new double[inFlux.length];
         int n = 0;
-        for (StarSite s : stars) {
-            double fin = aperture(input, s, radius, settings);
-            double fout = aperture(output, s, radius, settings);
+        for (int i = 0; i < inFlux.length; i++) {
+            double fin = inFlux[i];
+            double fout = outFlux[i];
             if (Double.isFinite(fin) && fin > 0 && Double.isFinite(fout)) {
                 ratios[n++] = fout / fin;
             }

@@ -12,6 +12,14 @@ import java.util.function.BooleanSupplier;
 
 /** The restorer behind {@link Restorers}: plans per plane (a PSF per plane), then runs. Stateless between calls. */
 final class PlanningRestorer implements Restorer {
+    /**
+     * The χ² stopping rule counts the pixels whose model lies this many sky σ above the sky: the pixels
+     * that carry the scene's light (project choice, measured on the quality harness and on a sparse
+     * 24-megapixel field, where counting every pixel stopped after 4 iterations with the stars still
+     * blurred).
+     */
+    static final double SIGNAL_SIGMA = 3;
+
     private final RestoreSettings settings;
 
     PlanningRestorer(RestoreSettings settings) {
@@ -75,8 +83,12 @@ final class PlanningRestorer implements Restorer {
                                 prot.marginSigma(), plan.gridWidth(), padX, padY, prot.guard() == StarGuard.RING_FLOOR);
                     }
                     double tiny = sigma > 0 ? 1e-3 * sigma : 1e-6;
+                    // The discrepancy of the χ² rule is taken where the restoration has work to do: on the
+                    // discs of the protected stars, else where the model lies SIGNAL_SIGMA above the sky. On a
+                    // sparse field or under a smooth nebula, the sky alone would satisfy it at once.
                     RlPlan.Params params = new RlPlan.Params(m, noise.offset(), noise.gain(), settings.tvWeight(),
-                            tiny, settings.dampingSigma());
+                            tiny, settings.dampingSigma(), sky + SIGNAL_SIGMA * sigma,
+                            starDiscs(floor, plan.gridWidth() * plan.gridHeight()));
                     long setup = System.nanoTime() - t0;
                     RlPlan.Outcome oc = plan.run(d, valid, floor, true, out.plane(p), params,
                             RlPlan.Conventions.standard(tiny), settings.stopping(), p, listener, cancelled);
@@ -122,6 +134,24 @@ final class PlanningRestorer implements Restorer {
     }
 
     /** The estimated noise model; see {@link NoiseModel}. */
+    /** The grid pixels of the protected stars' discs (rings and cores), or null without enough of them. */
+    static boolean[] starDiscs(StarFloor.Floor floor, int gridPixels) {
+        if (floor == null || floor.starGroups() == null || floor.stars() == 0) {
+            return null;
+        }
+        boolean[] mask = new boolean[gridPixels];
+        int n = 0;
+        for (int i : floor.indices()) {
+            n += mask[i] ? 0 : 1;
+            mask[i] = true;
+        }
+        for (int i : floor.coreIndices()) {
+            n += mask[i] ? 0 : 1;
+            mask[i] = true;
+        }
+        return n >= RlPlan.MIN_SIGNAL_PIXELS ? mask : null;
+    }
+
     static NoiseModel estimate(double sky, double sigma) {
         if (!(sigma > 0)) {
             return NoiseModel.poissonCounts();

@@ -16,8 +16,10 @@ package dev.nitid.restore;
 public record Stopping(StopRule rule, int maxIterations, double threshold, double minChange,
                        boolean recordLikelihood) {
     /**
-     * Default cap of automatic rules: the default TV-RL reaches χ²/N = 1 after 88 iterations on the harness's
-     * seeing scene and 32 on the diffraction scene (notes/restore.md).
+     * Default cap of automatic rules. With χ² counted over all pixels the default TV-RL reached χ²/N = 1 after
+     * 88 iterations on the harness's seeing scene and 32 on the diffraction scene; counted over the
+     * protected stars' discs (the rule now, see {@link StopRule#CHI_SQUARE}) it reaches the cap on the
+     * seeing scene and stops after 56 on the diffraction scene (benchmarks/README.md).
      */
     public static final int DEFAULT_CAP = 100;
     /**

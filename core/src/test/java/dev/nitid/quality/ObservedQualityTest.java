@@ -8,6 +8,9 @@ import dev.nitid.restore.Method;
 import dev.nitid.restore.RestoreSettings;
 import dev.nitid.restore.Restorers;
 import dev.nitid.restore.StarProtection;
+import dev.nitid.stars.MeasureSettings;
+import dev.nitid.stars.StarMeasurement;
+import dev.nitid.stars.StarMeasurer;
 import dev.nitid.synth.DetectorSettings;
 import dev.nitid.synth.ExtendedSettings;
 import dev.nitid.synth.FieldGenerator;
@@ -68,6 +71,28 @@ class ObservedQualityTest {
         double sq = Math.sqrt(Math.pow(f.settings().detector().skySigma(), 2) + 1.0 / 12);
         assertEquals(sq, ObservedQuality.measure(rounded, Double.NaN, QualitySettings.defaults(), 2).inputSigma(), 0.03 * sq,
                 "whole-number input σ");
+    }
+
+    @Test
+    void sameFiguresForAnyThreadCount() {
+        // The style rule "results identical whatever the thread count" (common practice, no source): the
+        // chunked sky passes, parallel smoothing, selection and per-star fits must give the same bits.
+        SyntheticField f = FieldGenerator.generate(new FieldSettings(300, 280, 99,
+                new StarSettings(30, FluxLaw.UNIFORM_MAGNITUDE, 5e3, 5e5, 1, Placement.GRID, 36),
+                new ExtendedSettings(80, 4, 30, 1.2, 1, 100), ModelPsf.moffat(3.5, 3).withSize(41),
+                new DetectorSettings(150, 1.5, 6, 2, Double.POSITIVE_INFINITY)));
+        StarMeasurement m = StarMeasurer.measure(f.observed(), MeasureSettings.defaults());
+        Image other = Image.wrap(300, 280, dev.nitid.quality.internal.GaussianSmoothing.smooth(
+                f.observed().plane(0), 300, 280, 2.0));
+        ObservedQuality one = ObservedQuality.of(f.observed(), m, Double.NaN, QualitySettings.defaults(), 1);
+        QualityReport expect = one.evaluate(other);
+        assertTrue(expect.fwhm().stars() > 0 && Double.isFinite(expect.noiseRatio()), "figures measured: " + expect);
+        for (int threads : new int[] {2, 3}) {
+            ObservedQuality q = ObservedQuality.of(f.observed(), m, Double.NaN, QualitySettings.defaults(), threads);
+            assertEquals(one.fwhmStars(), q.fwhmStars(), threads + " threads");
+            assertEquals(one.inputSigma(), q.inputSigma(), 0.0, threads + " threads");
+            assertEquals(expect, q.evaluate(other), threads + " threads");
+        }
     }
 
     @Test

@@ -217,10 +217,12 @@ class MethodsAndEdgesTest {
     @Test
     void chiSquareRuleStopsWhenTheResidualReachesTheNoise() {
         Scene sc = new Scene(2, 128, 3.5, 200, 5);
+        // The χ² counts only pixels whose model is 3σ above the sky (the stars and the filament), where plain RL
+        // converges slowly on point sources: give it room to get there.
         RestoreSettings s = RestoreSettings.defaults().withMethod(Method.RICHARDSON_LUCY).withThreads(1)
-                .withProtection(StarProtection.none()).withStopping(Stopping.chiSquare());
+                .withProtection(StarProtection.none()).withStopping(Stopping.chiSquare().withMaxIterations(2000));
         RestorationResult r = Restorers.create(s).restore(sc.observed, sc.psf);
-        assertEquals(StopReason.CHI_SQUARE_REACHED, r.stopReason());
+        assertEquals(StopReason.CHI_SQUARE_REACHED, r.stopReason(), "after " + r.iterations() + " iterations");
         var h = r.planes().get(0).history();
         assertTrue(h.get(h.size() - 1).chiSquare() <= 1.0);
         assertTrue(h.size() == 1 || h.get(h.size() - 2).chiSquare() > 1.0, "stopped at the first crossing");

@@ -64,10 +64,25 @@ public final class RlPlan implements AutoCloseable {
      * @param tvWeight     λ of TV-RL
      * @param tvEpsilon    added in quadrature to |∇o| in TV-RL, data units, &gt; 0
      * @param dampingSigma T of damped RL
+     * @param signalLevel  the χ² of the stopping rule counts only pixels whose model {@code K o} exceeds this
+     *                     level (data units), i.e. pixels that carry light from the scene, so that a large
+     *                     flat sky cannot satisfy the rule while the stars are still blurred; NaN counts
+     *                     every valid pixel. When fewer than {@link #MIN_SIGNAL_PIXELS} pixels qualify,
+     *                     every valid pixel counts.
+     * @param signalMask   grid pixels the χ² counts instead of the signal level (e.g. the discs around the
+     *                     protected stars), or null (input, not modified)
      */
     public record Params(Method method, double offset, double gain, double tvWeight, double tvEpsilon,
-                         double dampingSigma) {
+                         double dampingSigma, double signalLevel, boolean[] signalMask) {
+        /** Parameters whose χ² counts every valid pixel. */
+        public Params(Method method, double offset, double gain, double tvWeight, double tvEpsilon,
+                      double dampingSigma) {
+            this(method, offset, gain, tvWeight, tvEpsilon, dampingSigma, Double.NaN, null);
+        }
     }
+
+    /** Fewest pixels above the signal level for the χ² to be taken over them alone. */
+    public static final long MIN_SIGNAL_PIXELS = 100;
 
     private final int width;
     private final int height;
@@ -286,6 +301,8 @@ public final class RlPlan implements AutoCloseable {
             final double[] s2 = new double[nb];
             final double[] s3 = new double[nb];
             final double[] s4 = new double[nb];
+            final double[] chiSig = new double[nb];
+            final double[] nSig = new double[nb];
             final float[] t = tmp;
             final float[] sInv = inv;
             while (reason == null) {
@@ -318,9 +335,11 @@ public final class RlPlan implements AutoCloseable {
                     conv.convolve(x, t);
                 }
                 // tmp = K est, then the ratio, then Kᵀ ratio
-                passes.run((blk, from, to) -> ratio(d, w, t, c, g, guard, p, logLik, from, to, s1, s2, blk));
+                passes.run((blk, from, to) -> ratio(d, w, t, c, g, guard, p, logLik, from, to, s1, s2, chiSig, nSig, blk));
                 double logL = logLik ? g * BlockPasses.sum(s1) : Double.NaN;
-                double chi2 = BlockPasses.sum(s2) / Math.max(1, nValid);
+                double nSignal = BlockPasses.sum(nSig);
+                double chi2 = nSignal >= MIN_SIGNAL_PIXELS ? BlockPasses.sum(chiSig) / nSignal
+                        : BlockPasses.sum(s2) / Math.max(1, nValid);
                 conv.correlate(t, t);
                 if (method == Method.TV_RL && p.tvWeight() > 0) {
                     final float lam = (float) p.tvWeight();
@@ -442,9 +461,15 @@ public final class RlPlan implements AutoCloseable {
      * log-likelihood (in data units, before the gain) and χ² sums.
      */
     private static void ratio(float[] d, boolean[] w, float[] tmp, double c, double g, double guard, Params p,
-                              boolean logLik, int from, int to, double[] sumL, double[] sumChi, int blk) {
+                              boolean logLik, int from, int to, double[] sumL, double[] sumChi,
+                              double[] sumChiSignal, double[] countSignal, int blk) {
         double logL = 0;
         double chi2 = 0;
+        double chi2Signal = 0;
+        long nSignal = 0;
+        final double level = p.signalLevel();
+        final boolean[] mask = p.signalMask();
+        final boolean allSignal = mask == null && Double.isNaN(level);
         final boolean damped = p.method() == Method.DAMPED_RL;
         final double t2 = p.dampingSigma() * p.dampingSigma();
         final double minVar = 1.0 / g;
@@ -457,7 +482,12 @@ public final class RlPlan implements AutoCloseable {
             double model = (double) tmp[i] + c;
             double data = Math.max(0, (double) dv + c);
             double r = dv - tmp[i];
-            chi2 += r * r * g / Math.max(model, minVar);
+            double term = r * r * g / Math.max(model, minVar);
+            chi2 += term;
+            if (mask != null ? mask[i] : (allSignal || tmp[i] > level)) {
+                chi2Signal += term;
+                nSignal++;
+            }
             if (logLik) {
                 logL += model > 0 ? data * Math.log(model) - model : -model;
             }
@@ -480,6 +510,8 @@ public final class RlPlan implements AutoCloseable {
         }
         sumL[blk] = logL;
         sumChi[blk] = chi2;
+        sumChiSignal[blk] = chi2Signal;
+        countSignal[blk] = nSignal;
     }
 
     /** tmp ← tmp / max(s − λ div(∇o/|∇o|), TV_MIN_DENOMINATOR·s), scaled so that the update divides by s. */
