@@ -57,6 +57,7 @@ class PupilIdentitiesTest {
         double radius = 128;
         double eps = 0.33;
         double thin = 1 - 4 * w * radius * (1 - eps) / (Math.PI * radius * radius * (1 - eps * eps));
+        // Data check, not a test of our code: the formula as typed here reproduces the catalogue value.
         assertEquals(0.977563, thin, 1e-6, "thin-vane formula value (reference README §2b)");
         assertEquals(thin, areaRatio, 2e-4, "grey-edge open-area ratio vs thin-vane formula (formula good to 1e-4)");
     }
@@ -169,6 +170,7 @@ class PupilIdentitiesTest {
         Image fine = m.renderDetailed(size, 1, 0, 0).fine();
         java.util.List<Map<String, String>> rows = RefCsv.rows("polychromatic_eps0.33_500-600nm_profile.csv");
         double peak = RefCsv.num(rows.get(0), "P_flux_norm_poly");
+        // Data check, not a test of our code: the bundled CSV is the one the catalogue describes.
         assertEquals(0.705701, peak, 1e-6, "reference polychromatic peak");
         for (Map<String, String> r : rows) {
             double xc = RefCsv.num(r, "xc_lambdac_over_D");
