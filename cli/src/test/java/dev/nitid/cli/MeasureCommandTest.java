@@ -1,5 +1,6 @@
 package dev.nitid.cli;
 
+import static dev.nitid.cli.CliRun.run;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -33,18 +34,7 @@ class MeasureCommandTest {
     static Path dir;
     static Path field;
 
-    private record Run(int code, String out, String err) {
-    }
 
-    private static Run run(String... args) {
-        CommandLine cl = NitidCommand.commandLine();
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        cl.setOut(new PrintWriter(out));
-        cl.setErr(new PrintWriter(err));
-        int code = cl.execute(args);
-        return new Run(code, out.toString(), err.toString());
-    }
 
     /**
      * An invented 300×260 field: 80 round Gaussian stars of FWHM 3.2 px, pixel-integrated (6×6 sub-pixels),
@@ -91,7 +81,7 @@ class MeasureCommandTest {
 
     @Test
     void jsonCarriesTheIssueNamesAndTrueFigures() {
-        Run r = run("measure", field.toString(), "--json");
+        CliRun r = run("measure", field.toString(), "--json");
         assertEquals(ExitCode.OK, r.code(), r.err());
         String j = r.out();
         for (String key : new String[] {"stars_used", "fwhm_px", "fwhm_major_px", "fwhm_minor_px", "fwhm_arcsec",
@@ -114,12 +104,12 @@ class MeasureCommandTest {
         Path bare = dir.resolve("bare.fits");
         FitsImage fi = FitsReader.read(field);
         FitsWriter.write(bare, fi.image(), FitsHeader.empty(), WriteOptions.defaults().withOverwrite(true));
-        Run r = run("measure", bare.toString(), "--json");
+        CliRun r = run("measure", bare.toString(), "--json");
         assertEquals(ExitCode.OK, r.code(), r.err());
         assertTrue(Double.isNaN(number(r.out(), "fwhm_arcsec")), "fwhm_arcsec should be null");
-        Run t = run("measure", bare.toString());
+        CliRun t = run("measure", bare.toString());
         assertTrue(t.out().contains("arcsec unknown"), t.out());
-        Run o = run("measure", bare.toString(), "--json", "--pixel-scale", "1.5");
+        CliRun o = run("measure", bare.toString(), "--json", "--pixel-scale", "1.5");
         assertEquals(number(o.out(), "fwhm_px") * 1.5, number(o.out(), "fwhm_arcsec"), 1e-9);
     }
 
@@ -127,7 +117,7 @@ class MeasureCommandTest {
     void writesPsfAndMap() throws Exception {
         Path psf = dir.resolve("psf.fits");
         Path png = dir.resolve("map.png");
-        Run r = run("measure", field.toString(), "--psf-out", psf.toString(), "--plot", png.toString(), "-q");
+        CliRun r = run("measure", field.toString(), "--psf-out", psf.toString(), "--plot", png.toString(), "-q");
         assertEquals(ExitCode.OK, r.code(), r.err());
         Image p = FitsReader.read(psf).image();
         assertEquals(1, p.width() % 2, "odd PSF");
@@ -140,14 +130,14 @@ class MeasureCommandTest {
         int c = p.width() / 2;
         assertTrue(p.get(c, c) >= p.get(c + 1, c) && p.get(c, c) >= p.get(c, c + 1), "peak at the centre");
         assertTrue(ImageIO.read(png.toFile()).getWidth() > 100, "PNG readable");
-        Run again = run("measure", field.toString(), "--plot", png.toString());
+        CliRun again = run("measure", field.toString(), "--plot", png.toString());
         assertEquals(ExitCode.CANNOT_CREATE, again.code(), "existing output without --overwrite");
         assertTrue(again.err().startsWith("nitid: "), again.err());
     }
 
     @Test
     void failuresAreOneLineWithExitCodes() throws Exception {
-        Run missing = run("measure", dir.resolve("nope.fits").toString());
+        CliRun missing = run("measure", dir.resolve("nope.fits").toString());
         assertEquals(ExitCode.NO_INPUT, missing.code());
         assertEquals(1, missing.err().strip().lines().count(), missing.err());
         Path flat = dir.resolve("flat.fits");
@@ -157,10 +147,10 @@ class MeasureCommandTest {
             px[i] = (float) (100 + rnd.nextGaussian());
         }
         FitsWriter.write(flat, Image.wrap(64, 64, px), FitsHeader.empty(), WriteOptions.defaults().withOverwrite(true));
-        Run none = run("measure", flat.toString());
+        CliRun none = run("measure", flat.toString());
         assertEquals(ExitCode.DATA, none.code(), none.err());
         assertTrue(none.err().contains("no usable star"), none.err());
-        Run bad = run("measure", field.toString(), "--grid", "3by3");
+        CliRun bad = run("measure", field.toString(), "--grid", "3by3");
         assertEquals(ExitCode.USAGE, bad.code());
         assertTrue(bad.err().contains("--grid"), bad.err());
     }

@@ -1,5 +1,6 @@
 package dev.nitid.cli;
 
+import static dev.nitid.cli.CliRun.run;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -11,22 +12,11 @@ import picocli.CommandLine;
 /** The root command: version, help, completion script and the usage exit code. */
 class NitidCommandTest {
 
-    private record Run(int code, String out, String err) {
-    }
 
-    private static Run run(String... args) {
-        CommandLine cl = NitidCommand.commandLine();
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        cl.setOut(new PrintWriter(out));
-        cl.setErr(new PrintWriter(err));
-        int code = cl.execute(args);
-        return new Run(code, out.toString(), err.toString());
-    }
 
     @Test
     void versionNamesToolAndJava() {
-        Run r = run("--version");
+        CliRun r = run("--version");
         assertEquals(ExitCode.OK, r.code());
         assertTrue(r.out().startsWith("nitid "), r.out());
         assertTrue(r.out().contains("Java " + System.getProperty("java.version")), r.out());
@@ -34,7 +24,7 @@ class NitidCommandTest {
 
     @Test
     void helpListsCommandsExitCodesAndTheCaution() {
-        Run r = run("--help");
+        CliRun r = run("--help");
         assertEquals(ExitCode.OK, r.code());
         assertTrue(r.out().contains("generate-completion"), r.out());
         assertTrue(r.out().contains("not for photometry"), r.out());
@@ -43,14 +33,14 @@ class NitidCommandTest {
 
     @Test
     void unknownOptionIsAUsageError() {
-        Run r = run("--no-such-option");
+        CliRun r = run("--no-such-option");
         assertEquals(ExitCode.USAGE, r.code());
         assertTrue(r.err().contains("--no-such-option"), r.err());
     }
 
     @Test
     void completionScriptIsABashFunctionThatZshCanLoad() {
-        Run r = run("generate-completion");
+        CliRun r = run("generate-completion");
         assertEquals(ExitCode.OK, r.code());
         // picocli's script defines a completion function and registers it with `complete`;
         // zsh runs it through bashcompinit (picocli 4.7 documentation, "Autocomplete").

@@ -21,24 +21,15 @@ class PsfCommandTest {
     @TempDir
     Path dir;
 
-    record Run(int code, String out, String err) {
-    }
-
-    static Run run(String... args) {
+    static CliRun run(String... args) {
         System.setProperty("java.awt.headless", "true");
-        CommandLine cl = NitidCommand.commandLine();
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        cl.setOut(new PrintWriter(out));
-        cl.setErr(new PrintWriter(err));
-        int code = cl.execute(args);
-        return new Run(code, out.toString(), err.toString());
+        return CliRun.run(args);
     }
 
     @Test
     void gaussianWritesNormalisedFitsWithFigures() throws Exception {
         Path f = dir.resolve("g.fits");
-        Run r = run("psf", "--model", "gaussian", "--fwhm", "3", "--ellipticity", "0.2", "--angle", "30",
+        CliRun r = run("psf", "--model", "gaussian", "--fwhm", "3", "--ellipticity", "0.2", "--angle", "30",
                 "--size", "31", "-o", f.toString());
         assertEquals(0, r.code(), r.err());
         FitsImage fi = FitsReader.read(f);
@@ -62,7 +53,7 @@ class PsfCommandTest {
     void moffatWithPreview() throws Exception {
         Path f = dir.resolve("m.fits");
         Path png = dir.resolve("m.png");
-        Run r = run("psf", "--model", "moffat", "--fwhm", "3.2", "--beta", "3", "-o", f.toString(),
+        CliRun r = run("psf", "--model", "moffat", "--fwhm", "3.2", "--beta", "3", "-o", f.toString(),
                 "--preview", png.toString());
         assertEquals(0, r.code(), r.err());
         FitsImage fi = FitsReader.read(f);
@@ -76,7 +67,7 @@ class PsfCommandTest {
     @Test
     void airyBandRecordsOpticsAndSampling() throws Exception {
         Path f = dir.resolve("a.fits");
-        Run r = run("psf", "--model", "airy", "--aperture", "200", "--obstruction", "0.33", "--vanes", "4",
+        CliRun r = run("psf", "--model", "airy", "--aperture", "200", "--obstruction", "0.33", "--vanes", "4",
                 "--vane-width", "2", "--focal-length", "1000", "--pixel-size", "3.76", "--band", "500-600",
                 "--zernike", "4=0.05", "--jitter", "0.3", "--size", "33", "--oversample", "3", "-o", f.toString());
         assertEquals(0, r.code(), r.err());
@@ -95,29 +86,29 @@ class PsfCommandTest {
     @Test
     void mistakesGiveOneLineAndExitCode() throws Exception {
         Path f = dir.resolve("x.fits");
-        Run noFwhm = run("psf", "--model", "gaussian", "-o", f.toString());
+        CliRun noFwhm = run("psf", "--model", "gaussian", "-o", f.toString());
         assertEquals(ExitCode.USAGE, noFwhm.code());
         assertTrue(noFwhm.err().startsWith("nitid: ") && noFwhm.err().contains("--fwhm"), noFwhm.err());
         assertEquals(1, noFwhm.err().strip().lines().count(), "one line: " + noFwhm.err());
 
-        Run even = run("psf", "--model", "moffat", "--fwhm", "3", "--size", "20", "-o", f.toString());
+        CliRun even = run("psf", "--model", "moffat", "--fwhm", "3", "--size", "20", "-o", f.toString());
         assertEquals(ExitCode.USAGE, even.code());
         assertTrue(even.err().contains("odd"), even.err());
 
-        Run zern = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
+        CliRun zern = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
                 "--zernike", "4:0.1", "-o", f.toString());
         assertEquals(ExitCode.USAGE, zern.code());
         assertTrue(zern.err().contains("INDEX=WAVES"), zern.err());
 
-        Run seeing = run("psf", "--model", "gaussian", "--fwhm", "2", "--seeing", "2", "-o", f.toString());
+        CliRun seeing = run("psf", "--model", "gaussian", "--fwhm", "2", "--seeing", "2", "-o", f.toString());
         assertEquals(ExitCode.USAGE, seeing.code());
         assertTrue(seeing.err().contains("--focal-length"), seeing.err());
 
-        Run ok = run("psf", "--model", "gaussian", "--fwhm", "2", "-o", f.toString());
+        CliRun ok = run("psf", "--model", "gaussian", "--fwhm", "2", "-o", f.toString());
         assertEquals(0, ok.code(), ok.err());
-        Run again = run("psf", "--model", "gaussian", "--fwhm", "2", "-o", f.toString());
+        CliRun again = run("psf", "--model", "gaussian", "--fwhm", "2", "-o", f.toString());
         assertEquals(ExitCode.CANNOT_CREATE, again.code(), again.err());
-        Run over = run("psf", "--model", "gaussian", "--fwhm", "2", "-o", f.toString(), "--overwrite");
+        CliRun over = run("psf", "--model", "gaussian", "--fwhm", "2", "-o", f.toString(), "--overwrite");
         assertEquals(0, over.code(), over.err());
         assertTrue(Files.size(f) > 0);
     }
@@ -126,21 +117,21 @@ class PsfCommandTest {
     void optionRulesAndAutomaticSize() throws Exception {
         Path f = dir.resolve("s.fits");
         // automatic side: ±3 FWHM for a Gaussian (docs/psf.md), so FWHM 3 → 2·9 + 1 = 19
-        Run g = run("psf", "--model", "gaussian", "--fwhm", "3", "-o", f.toString());
+        CliRun g = run("psf", "--model", "gaussian", "--fwhm", "3", "-o", f.toString());
         assertEquals(0, g.code(), g.err());
         assertEquals(19, FitsReader.read(f).image().width());
-        Run noll = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
+        CliRun noll = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
                 "--zernike", "12=0.1", "-o", dir.resolve("n.fits").toString());
         assertEquals(ExitCode.USAGE, noll.code());
         assertTrue(noll.err().contains("Noll"), noll.err());
-        Run vanes = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
+        CliRun vanes = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
                 "--vanes", "3", "-o", dir.resolve("v.fits").toString());
         assertEquals(ExitCode.USAGE, vanes.code());
         assertTrue(vanes.err().contains("--vane-width"), vanes.err());
-        Run both = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
+        CliRun both = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
                 "--wavelength", "600", "--band", "500-600", "-o", dir.resolve("b.fits").toString());
         assertEquals(ExitCode.USAGE, both.code());
-        Run band = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
+        CliRun band = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
                 "--band", "400-700", "--size", "15", "-o", dir.resolve("band.fits").toString());
         assertEquals(0, band.code(), band.err());
         FitsImage fi = FitsReader.read(dir.resolve("band.fits"));
@@ -156,7 +147,7 @@ class PsfCommandTest {
     @Test
     void outsideToolsAcceptTheFile() throws Exception {
         Path f = dir.resolve("ext.fits");
-        Run r = run("psf", "--model", "moffat", "--fwhm", "2.5", "--beta", "3", "--size", "25", "-o", f.toString());
+        CliRun r = run("psf", "--model", "moffat", "--fwhm", "2.5", "--beta", "3", "--size", "25", "-o", f.toString());
         assertEquals(0, r.code(), r.err());
         Path fv = Path.of("/usr/bin/fitsverify");
         org.junit.jupiter.api.Assumptions.assumeTrue(Files.isExecutable(fv), "fitsverify not installed");

@@ -1,5 +1,6 @@
 package dev.nitid.cli;
 
+import static dev.nitid.cli.CliRun.run;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -26,18 +27,7 @@ class SharpenCommandTest {
     Path in;
     Path psf;
 
-    private record Run(int code, String out, String err) {
-    }
 
-    private static Run run(String... args) {
-        CommandLine cl = NitidCommand.commandLine();
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        cl.setOut(new PrintWriter(out));
-        cl.setErr(new PrintWriter(err));
-        int code = cl.execute(args);
-        return new Run(code, out.toString(), err.toString());
-    }
 
     private static Image gaussian(int n, double sigma) {
         Image k = Image.create(n, n);
@@ -78,7 +68,7 @@ class SharpenCommandTest {
     @Test
     void sharpensWritesHeaderCardsAndKeepsTheInputHeader() throws Exception {
         Path out = dir.resolve("out.fits");
-        Run r = run("sharpen", in.toString(), "--psf", psf.toString(), "-o", out.toString(), "--threads", "1");
+        CliRun r = run("sharpen", in.toString(), "--psf", psf.toString(), "-o", out.toString(), "--threads", "1");
         assertEquals(ExitCode.OK, r.code(), r.err());
         FitsImage o = FitsReader.read(out);
         assertEquals("invented field", o.header().getString("OBJECT").orElse(""));
@@ -100,7 +90,7 @@ class SharpenCommandTest {
         assertEquals(3.0, FitsReader.read(out).header().getDouble("NTDITER").orElse(-1));
         assertEquals("FIXED_COUNT_REACHED", FitsReader.read(out).header().getString("NTDSTOP").orElse(""));
         Path w = dir.resolve("w.fits");
-        Run r = run("sharpen", in.toString(), "--psf", psf.toString(), "-o", w.toString(), "--method", "wiener");
+        CliRun r = run("sharpen", in.toString(), "--psf", psf.toString(), "-o", w.toString(), "--method", "wiener");
         assertEquals(ExitCode.OK, r.code(), r.err());
         assertEquals("WIENER", FitsReader.read(w).header().getString("NTDMETH").orElse(""));
     }
@@ -108,25 +98,25 @@ class SharpenCommandTest {
     @Test
     void mistakesGiveOneLineAndTheDocumentedExitCode() throws Exception {
         Path out = dir.resolve("x.fits");
-        Run missing = run("sharpen", in.toString(), "--psf", dir.resolve("nope.fits").toString(), "-o", out.toString());
+        CliRun missing = run("sharpen", in.toString(), "--psf", dir.resolve("nope.fits").toString(), "-o", out.toString());
         assertEquals(ExitCode.NO_INPUT, missing.code());
         assertTrue(missing.err().startsWith("nitid: ") && missing.err().strip().lines().count() == 1, missing.err());
         Files.writeString(out, "occupied");
-        Run exists = run("sharpen", in.toString(), "--psf", psf.toString(), "-o", out.toString());
+        CliRun exists = run("sharpen", in.toString(), "--psf", psf.toString(), "-o", out.toString());
         assertEquals(ExitCode.CANNOT_CREATE, exists.code(), exists.err());
         assertEquals(ExitCode.OK, run("sharpen", in.toString(), "--psf", psf.toString(), "-o", out.toString(),
                 "--overwrite", "--iterations", "1").code());
-        Run zero = run("sharpen", in.toString(), "--psf", psf.toString(), "-o", out.toString(), "--overwrite",
+        CliRun zero = run("sharpen", in.toString(), "--psf", psf.toString(), "-o", out.toString(), "--overwrite",
                 "--iterations", "0");
         assertEquals(ExitCode.USAGE, zero.code());
         assertTrue(zero.err().contains("--iterations"), zero.err());
-        Run self = run("sharpen", in.toString(), "--psf", psf.toString(), "-o", in.toString(), "--overwrite");
+        CliRun self = run("sharpen", in.toString(), "--psf", psf.toString(), "-o", in.toString(), "--overwrite");
         assertEquals(ExitCode.CANNOT_CREATE, self.code(), "the input is never overwritten: " + self.err());
     }
 
     @Test
     void helpSaysDeconvolvedImagesAreNotForPhotometry() {
-        Run r = run("sharpen", "--help");
+        CliRun r = run("sharpen", "--help");
         assertEquals(ExitCode.OK, r.code());
         assertTrue(r.out().contains("not for photometry"), r.out());
         assertTrue(r.out().contains("--iterations") && r.out().contains("--psf") && r.out().contains("--overwrite"));

@@ -1,5 +1,6 @@
 package dev.nitid.cli;
 
+import static dev.nitid.cli.CliRun.run;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -48,18 +49,7 @@ class SharpenEndToEndTest {
     static Path observed;
     static Path psf;
 
-    record Run(int code, String out, String err) {
-    }
 
-    static Run run(String... args) {
-        CommandLine cl = NitidCommand.commandLine();
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        cl.setOut(new PrintWriter(out));
-        cl.setErr(new PrintWriter(err));
-        int code = cl.execute(args);
-        return new Run(code, out.toString(), err.toString());
-    }
 
     @BeforeAll
     static void scene() throws Exception {
@@ -86,7 +76,7 @@ class SharpenEndToEndTest {
         Path out = dir.resolve("out.fits");
         Path png = dir.resolve("out.png");
         Path json = dir.resolve("out.json");
-        Run r = run("sharpen", observed.toString(), "--psf", psf.toString(), "-o", out.toString(),
+        CliRun r = run("sharpen", observed.toString(), "--psf", psf.toString(), "-o", out.toString(),
                 "--preview", png.toString(), "--report", json.toString());
         assertEquals(ExitCode.OK, r.code(), r.err());
 
@@ -116,7 +106,7 @@ class SharpenEndToEndTest {
     void measuresThePsfWhenNoneIsGivenAndWritesNextToTheInput() throws Exception {
         Path copy = dir.resolve("copy.fits");
         Files.copy(observed, copy);
-        Run r = run("sharpen", copy.toString(), "--iterations", "5");
+        CliRun r = run("sharpen", copy.toString(), "--iterations", "5");
         assertEquals(ExitCode.OK, r.code(), r.err());
         assertTrue(r.out().contains("PSF        measured from"), r.out());
         assertTrue(Files.exists(dir.resolve("copy-sharp.fits")), "default output IN-sharp.fits");
@@ -131,7 +121,7 @@ class SharpenEndToEndTest {
         SyntheticField empty = FieldGenerator.generate(FieldSettings.of(64, 64, 3).withStars(StarSettings.none()));
         dev.nitid.fits.FitsWriter.write(flat, empty.observed(), dev.nitid.fits.FitsHeader.empty(),
                 dev.nitid.fits.WriteOptions.defaults());
-        Run r = run("sharpen", flat.toString(), "-o", dir.resolve("flat-out.fits").toString());
+        CliRun r = run("sharpen", flat.toString(), "-o", dir.resolve("flat-out.fits").toString());
         assertEquals(ExitCode.DATA, r.code(), r.err());
         assertTrue(r.err().startsWith("nitid: "), r.err());
         assertTrue(r.err().contains("--psf"), r.err());
@@ -141,7 +131,7 @@ class SharpenEndToEndTest {
 
     @Test
     void psfFileAndModelTogetherIsAUsageError() {
-        Run r = run("sharpen", observed.toString(), "--psf", psf.toString(), "--model", "moffat", "--fwhm", "3",
+        CliRun r = run("sharpen", observed.toString(), "--psf", psf.toString(), "--model", "moffat", "--fwhm", "3",
                 "-o", dir.resolve("x.fits").toString());
         assertEquals(ExitCode.USAGE, r.code(), r.err());
         assertTrue(r.err().contains("--psf and --model"), r.err());
@@ -149,7 +139,7 @@ class SharpenEndToEndTest {
 
     @Test
     void modelOptionsBuildThePsf() {
-        Run r = run("sharpen", observed.toString(), "--model", "moffat", "--fwhm", "3.2", "--beta", "3",
+        CliRun r = run("sharpen", observed.toString(), "--model", "moffat", "--fwhm", "3.2", "--beta", "3",
                 "--iterations", "3", "-o", dir.resolve("model.fits").toString());
         assertEquals(ExitCode.OK, r.code(), r.err());
         assertTrue(r.out().contains("PSF        model"), r.out());

@@ -1,5 +1,6 @@
 package dev.nitid.cli;
 
+import static dev.nitid.cli.CliRun.run;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -20,18 +21,7 @@ class SimulateCommandTest {
     @TempDir
     Path dir;
 
-    record Run(int code, String out, String err) {
-    }
 
-    private static Run run(String... args) {
-        CommandLine cl = NitidCommand.commandLine();
-        StringWriter out = new StringWriter();
-        StringWriter err = new StringWriter();
-        cl.setOut(new PrintWriter(out));
-        cl.setErr(new PrintWriter(err));
-        int code = cl.execute(args);
-        return new Run(code, out.toString(), err.toString());
-    }
 
     /** A small field without PSF options. */
     private String[] base(Path out, String... extra) {
@@ -51,7 +41,7 @@ class SimulateCommandTest {
     @Test
     void writesFourFilesWithParametersInTheHeaders() throws Exception {
         Path out = dir.resolve("field.fits");
-        Run r = run(small(out));
+        CliRun r = run(small(out));
         assertEquals(ExitCode.OK, r.code(), r.err());
         FitsImage obs = FitsReader.read(out);
         assertEquals(96, obs.image().width());
@@ -96,7 +86,7 @@ class SimulateCommandTest {
         // The psf command's airy options drive the field; the plate scale follows from focal length and pixel
         // size: 206.264806 × 3.76 / 1000 = 0.775556 arcsec/px (reference README §4, astropy 5.2.1).
         Path out = dir.resolve("airy.fits");
-        Run r = run(base(out, "--model", "airy", "--aperture", "200", "--focal-length", "1000", "--pixel-size",
+        CliRun r = run(base(out, "--model", "airy", "--aperture", "200", "--focal-length", "1000", "--pixel-size",
                 "3.76", "--obstruction", "0.3", "--vanes", "4", "--vane-width", "2", "--psf-size", "31"));
         assertEquals(ExitCode.OK, r.code(), r.err());
         FitsImage f = FitsReader.read(out);
@@ -139,7 +129,7 @@ class SimulateCommandTest {
     void refusesToOverwriteWithoutTheOption() {
         Path out = dir.resolve("f.fits");
         assertEquals(ExitCode.OK, run(small(out)).code());
-        Run again = run(small(out));
+        CliRun again = run(small(out));
         assertEquals(ExitCode.CANNOT_CREATE, again.code());
         assertTrue(again.err().startsWith("nitid: ") && again.err().contains("--overwrite"), again.err());
         assertEquals(ExitCode.OK, run(small(out, "--overwrite")).code());
@@ -151,12 +141,12 @@ class SimulateCommandTest {
         for (String[] bad : new String[][] {{"--bitpix", "8"}, {"--gain", "0"}, {"--oversample", "99"},
                 {"--flux-law", "linear"}, {"--fwhm-gradient", "0.1"}, {"--ellipticity", "0.3", "--fwhm-gradient", "0.1,0"},
                 {"--psf-file", "x.fits"}}) {
-            Run r = run(small(out, bad));
+            CliRun r = run(small(out, bad));
             assertEquals(ExitCode.USAGE, r.code(), String.join(" ", bad) + ": " + r.err());
             assertEquals(1, r.err().strip().lines().count(), r.err());
             assertTrue(r.err().startsWith("nitid: "), r.err());
         }
-        Run size = run("simulate", "-o", out.toString(), "--image-size", "12xx");
+        CliRun size = run("simulate", "-o", out.toString(), "--image-size", "12xx");
         assertEquals(ExitCode.USAGE, size.code(), size.err());
         assertTrue(size.err().contains("--image-size is '12xx'"), size.err());
         assertEquals(ExitCode.USAGE, run(base(out, "--model", "cubic")).code(), "unknown model");
@@ -169,7 +159,7 @@ class SimulateCommandTest {
         Path first = dir.resolve("one.fits");
         assertEquals(ExitCode.OK, run(base(first, "--model", "gaussian", "--fwhm", "2")).code());
         Path second = dir.resolve("two.fits");
-        Run r = run(base(second, "--psf-file", dir.resolve("one-psf.fits").toString()));
+        CliRun r = run(base(second, "--psf-file", dir.resolve("one-psf.fits").toString()));
         assertEquals(ExitCode.OK, r.code(), r.err());
         float[] a = FitsReader.read(dir.resolve("one-psf.fits")).image().plane(0);
         float[] b = FitsReader.read(dir.resolve("two-psf.fits")).image().plane(0);
@@ -182,7 +172,7 @@ class SimulateCommandTest {
 
     @Test
     void missingPsfFileExits66() {
-        Run r = run(base(dir.resolve("h.fits"), "--psf-file", dir.resolve("nope.fits").toString()));
+        CliRun r = run(base(dir.resolve("h.fits"), "--psf-file", dir.resolve("nope.fits").toString()));
         assertEquals(ExitCode.NO_INPUT, r.code(), r.err());
     }
 
