@@ -10,8 +10,6 @@ import dev.nitid.fits.FitsReader;
 import dev.nitid.fits.FitsWriter;
 import dev.nitid.fits.WriteOptions;
 import dev.nitid.image.Image;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.SplittableRandom;
@@ -21,7 +19,6 @@ import javax.imageio.ImageIO;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import picocli.CommandLine;
 
 /** {@code nitid measure}: JSON names and values, outputs, and failures mapped to exit codes. */
 class MeasureCommandTest {

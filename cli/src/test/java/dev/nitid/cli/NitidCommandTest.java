@@ -4,10 +4,7 @@ import static dev.nitid.cli.CliRun.run;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import org.junit.jupiter.api.Test;
-import picocli.CommandLine;
 
 /** The root command: version, help, completion script and the usage exit code. */
 class NitidCommandTest {

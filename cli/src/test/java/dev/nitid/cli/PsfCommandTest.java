@@ -7,14 +7,11 @@ import dev.nitid.fits.FitsImage;
 import dev.nitid.fits.FitsReader;
 import dev.nitid.psf.PsfFigures;
 import java.awt.image.BufferedImage;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import javax.imageio.ImageIO;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import picocli.CommandLine;
 
 /** {@code nitid psf} end to end: files written, header contents, and the one-line errors with exit codes. */
 class PsfCommandTest {

@@ -10,15 +10,12 @@ import dev.nitid.fits.FitsReader;
 import dev.nitid.fits.FitsWriter;
 import dev.nitid.fits.WriteOptions;
 import dev.nitid.image.Image;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.SplittableRandom;
 import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import picocli.CommandLine;
 
 /** {@code nitid sharpen} on an invented star field written to FITS. */
 class SharpenCommandTest {

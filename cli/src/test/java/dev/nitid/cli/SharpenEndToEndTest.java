@@ -20,8 +20,6 @@ import dev.nitid.synth.Placement;
 import dev.nitid.synth.StarSettings;
 import dev.nitid.synth.SyntheticField;
 import java.awt.image.BufferedImage;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.regex.Matcher;
@@ -30,7 +28,6 @@ import javax.imageio.ImageIO;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import picocli.CommandLine;
 
 /**
  * {@code nitid sharpen} end to end on a synthetic field with known truth: the figures it prints against

@@ -8,14 +8,11 @@ import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 import dev.nitid.fits.FitsImage;
 import dev.nitid.fits.FitsReader;
-import java.io.PrintWriter;
-import java.io.StringWriter;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
-import picocli.CommandLine;
 
 class SimulateCommandTest {
     @TempDir
