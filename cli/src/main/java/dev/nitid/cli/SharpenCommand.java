@@ -28,6 +28,7 @@ import javax.imageio.ImageIO;
 import dev.nitid.fits.FitsHeader;
 import dev.nitid.fits.FitsImage;
 import dev.nitid.fits.FitsReader;
+import dev.nitid.fits.ReadOptions;
 import dev.nitid.fits.FitsWriter;
 import dev.nitid.fits.WriteOptions;
 import dev.nitid.fits.WriteReport;
@@ -73,6 +74,13 @@ import picocli.CommandLine.Spec;
             "  NTDMETH  method, NTDITER iterations run, NTDSTOP why it stopped, NTDEDGE edge handling,",
             "  NTDGUARD star protection, NTDPSF PSF file name."})
 public final class SharpenCommand implements Callable<Integer> {
+    /**
+     * Float planes of the image's size the command holds at its peak: input, output, the restorer's
+     * buffers and the figures' masks (measured: 695 MB resident for a 24-megapixel plane of 96 MB, about
+     * 7 planes). The reader refuses, with memory advice, an image this many copies of which exceed the heap.
+     */
+    static final int WORKING_COPIES = 7;
+
     /** The preview's faint-region crop looks for smooth light this many sky σ above the sky. */
     static final double FAINT_SIGMA = 4;
 
@@ -184,7 +192,7 @@ public final class SharpenCommand implements Callable<Integer> {
             Path out = output != null ? output : defaultOutput(input);
             checkSideOutput(preview);
             checkSideOutput(report);
-            FitsImage in = FitsReader.read(input);
+            FitsImage in = FitsReader.read(input, new ReadOptions(-1, WORKING_COPIES));
             stages.mark("read");
             RestoreSettings s = settings(in);
             PsfChoice psf = psf(in);

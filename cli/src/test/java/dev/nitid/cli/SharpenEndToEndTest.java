@@ -141,4 +141,36 @@ class SharpenEndToEndTest {
         assertEquals(ExitCode.OK, r.code(), r.err());
         assertTrue(r.out().contains("PSF        model"), r.out());
     }
+
+    @Test
+    void colourCubeWithANaNRegionRestoresEveryPlaneAndFillsTheHole() throws Exception {
+        // Three planes of the same field at different brightness, one with a 10x10 hole of NaN (masked pixels
+        // carry no weight and are filled by the restoration: restorer issue, "Masks").
+        float[][] planes = new float[3][];
+        for (int p = 0; p < 3; p++) {
+            planes[p] = field.observed().plane(0).clone();
+            for (int i = 0; i < planes[p].length; i++) {
+                planes[p][i] *= 1f - 0.2f * p;
+            }
+        }
+        for (int y = 100; y < 110; y++) {
+            for (int x = 60; x < 70; x++) {
+                planes[1][y * 256 + x] = Float.NaN;
+            }
+        }
+        Path cube = dir.resolve("cube.fits");
+        dev.nitid.fits.FitsWriter.write(cube, dev.nitid.image.Image.wrap(256, 256, planes),
+                dev.nitid.fits.FitsHeader.empty(), dev.nitid.fits.WriteOptions.defaults());
+        Path out = dir.resolve("cube-out.fits");
+        CliRun r = run("sharpen", cube.toString(), "--psf", psf.toString(), "-o", out.toString(), "--iterations", "10");
+        assertEquals(ExitCode.OK, r.code(), r.err());
+        FitsImage back = FitsReader.read(out);
+        assertEquals(3, back.image().planes());
+        for (int p = 0; p < 3; p++) {
+            assertEquals(0, back.image().stats(p).nonFinite(), "plane " + p + " has no NaN left");
+        }
+        float filled = back.image().get(1, 65, 105);
+        double sky = 200 * (1 - 0.2);
+        assertTrue(Math.abs(filled - sky) < 0.5 * sky, "hole filled near the sky level: " + filled);
+    }
 }
