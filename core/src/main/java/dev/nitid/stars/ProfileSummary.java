@@ -9,11 +9,11 @@ package dev.nitid.stars;
  * @param count          stars whose fit of this shape converged
  * @param fwhm           median geometric-mean FWHM √(major·minor), px
  * @param fwhmSpread     1.4826·MAD of the FWHM, px
- * @param fwhmMajor      median major FWHM, px
- * @param fwhmMinor      median minor FWHM, px
- * @param ellipticity    median 1 − minor/major
+ * @param fwhmMajor      major FWHM of the median shape, fwhm / √(1 − ellipticity), px
+ * @param fwhmMinor      minor FWHM of the median shape, fwhm · √(1 − ellipticity), px
+ * @param ellipticity    1 − minor/major of the median shape: |(median e cos 2θ, median e sin 2θ)|
  * @param ellipticitySpread 1.4826·MAD of the ellipticity
- * @param angle          median major-axis angle, radians in [0, π), from +x towards +y
+ * @param angle          major-axis angle of the median shape, radians in [0, π), from +x towards +y
  * @param beta           median Moffat β (NaN for a Gaussian)
  * @param betaSpread     1.4826·MAD of β (NaN for a Gaussian)
  * @param bic            Bayesian information criterion summed over the stars where both shapes converged,
