@@ -11,10 +11,10 @@ package dev.nitid.stars;
  * @param y1          one past the last row
  * @param count       accepted stars in it
  * @param fwhm        median √(major·minor), px (NaN when empty)
- * @param fwhmMajor   median major FWHM, px
- * @param fwhmMinor   median minor FWHM, px
- * @param ellipticity median 1 − minor/major
- * @param angle       median major-axis angle, radians in [0, π)
+ * @param fwhmMajor   major FWHM of the median shape (see StarMeasurer.MedianShape), px
+ * @param fwhmMinor   minor FWHM of the median shape, px
+ * @param ellipticity 1 − minor/major of the median shape (median of the signed components)
+ * @param angle       major-axis angle of the median shape, radians in [0, π)
  */
 public record RegionSummary(int column, int row, int x0, int y0, int x1, int y1, int count, double fwhm,
                             double fwhmMajor, double fwhmMinor, double ellipticity, double angle) {

@@ -617,6 +617,41 @@ public final class StarMeasurer {
     /** Upper bound of a summary ellipticity, so that the derived minor axis stays positive. */
     static final double MAX_SUMMARY_ELLIPTICITY = 0.95;
 
+    /**
+     * The median shape of a set of profiles. The shape is aggregated through the signed components
+     * e1 = e cos 2θ, e2 = e sin 2θ: noise scatters them symmetrically about the true shape, while the median
+     * of e = |(e1, e2)| is biased upwards by it (a round PSF measured on faint stars read e ≈ 0.1).
+     * Component averaging is common practice in shape measurement (e.g. weak-lensing ellipticities; from
+     * memory, no single source). Major and minor follow from the median FWHM = √(major·minor) and
+     * minor/major = 1 − e.
+     */
+    record MedianShape(double fwhm, double major, double minor, double ellipticity, double angle) {
+        static MedianShape of(List<StarProfile> ps) {
+            int n = ps.size();
+            if (n == 0) {
+                return new MedianShape(Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN);
+            }
+            double[] fw = new double[n];
+            double[] e1 = new double[n];
+            double[] e2 = new double[n];
+            double[] an = new double[n];
+            for (int i = 0; i < n; i++) {
+                StarProfile p = ps.get(i);
+                fw[i] = p.fwhm();
+                an[i] = p.angle();
+                e1[i] = p.ellipticity() * Math.cos(2 * p.angle());
+                e2[i] = p.ellipticity() * Math.sin(2 * p.angle());
+            }
+            double m1 = Select.median(e1);
+            double m2 = Select.median(e2);
+            double ell = Math.min(MAX_SUMMARY_ELLIPTICITY, Math.hypot(m1, m2));
+            double half = 0.5 * Math.atan2(m2, m1);
+            double angle = ell > 0 ? (half < 0 ? half + Math.PI : half) : axialMedian(an);
+            double fwhm = Select.median(fw);
+            return new MedianShape(fwhm, fwhm / Math.sqrt(1 - ell), fwhm * Math.sqrt(1 - ell), ell, angle);
+        }
+    }
+
     private static ProfileSummary summarise(ProfileShape shape, List<MeasuredStar> stars, BackgroundMap bg) {
         List<StarProfile> ps = new ArrayList<>();
         double bicG = 0;
@@ -640,33 +675,12 @@ public final class StarMeasurer {
                     Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.POSITIVE_INFINITY);
         }
         double[] fw = ps.stream().mapToDouble(StarProfile::fwhm).toArray();
-        double[] ma = ps.stream().mapToDouble(StarProfile::fwhmMajor).toArray();
-        double[] mi = ps.stream().mapToDouble(StarProfile::fwhmMinor).toArray();
         double[] el = ps.stream().mapToDouble(StarProfile::ellipticity).toArray();
-        double[] an = ps.stream().mapToDouble(StarProfile::angle).toArray();
         double[] be = ps.stream().mapToDouble(StarProfile::beta).toArray();
         boolean moffat = shape == ProfileShape.MOFFAT;
-        // The shape is aggregated through the signed components e1 = e cos 2θ, e2 = e sin 2θ: noise scatters
-        // them symmetrically about the true shape, while the median of e = |(e1, e2)| is biased upwards by it
-        // (a round PSF measured on faint stars read e ≈ 0.1). Component averaging is common practice in
-        // shape measurement (e.g. weak-lensing ellipticities; from memory, no single source).
-        double[] e1 = new double[el.length];
-        double[] e2 = new double[el.length];
-        for (int i = 0; i < el.length; i++) {
-            e1[i] = el[i] * Math.cos(2 * an[i]);
-            e2[i] = el[i] * Math.sin(2 * an[i]);
-        }
-        double m1 = Select.median(e1);
-        double m2 = Select.median(e2);
-        double ell = Math.min(MAX_SUMMARY_ELLIPTICITY, Math.hypot(m1, m2));
-        double half = 0.5 * Math.atan2(m2, m1);
-        double angle = ell > 0 ? (half < 0 ? half + Math.PI : half) : axialMedian(an);
-        double fwhm = Select.median(fw);
-        // major and minor follow from the median FWHM = √(major·minor) and minor/major = 1 − e
-        double major = fwhm / Math.sqrt(1 - ell);
-        double minor = fwhm * Math.sqrt(1 - ell);
-        return new ProfileSummary(shape, ps.size(), fwhm, Select.madSigma(fw), major, minor, ell,
-                Select.madSigma(el), angle, moffat ? Select.median(be) : Double.NaN,
+        MedianShape ms = MedianShape.of(ps);
+        return new ProfileSummary(shape, ps.size(), ms.fwhm(), Select.madSigma(fw), ms.major(), ms.minor(),
+                ms.ellipticity(), Select.madSigma(el), ms.angle(), moffat ? Select.median(be) : Double.NaN,
                 moffat ? Select.madSigma(be) : Double.NaN, bic);
     }
 
@@ -706,12 +720,9 @@ public final class StarMeasurer {
                 int x1 = (int) ((long) (col + 1) * w / gc);
                 int y0 = (int) ((long) row * h / gr);
                 int y1 = (int) ((long) (row + 1) * h / gr);
-                out.add(new RegionSummary(col, row, x0, y0, x1, y1, ps.size(),
-                        Select.median(ps.stream().mapToDouble(StarProfile::fwhm).toArray()),
-                        Select.median(ps.stream().mapToDouble(StarProfile::fwhmMajor).toArray()),
-                        Select.median(ps.stream().mapToDouble(StarProfile::fwhmMinor).toArray()),
-                        Select.median(ps.stream().mapToDouble(StarProfile::ellipticity).toArray()),
-                        axialMedian(ps.stream().mapToDouble(StarProfile::angle).toArray())));
+                MedianShape ms = MedianShape.of(ps);
+                out.add(new RegionSummary(col, row, x0, y0, x1, y1, ps.size(), ms.fwhm(), ms.major(), ms.minor(),
+                        ms.ellipticity(), ms.angle()));
             }
         }
         return out;
