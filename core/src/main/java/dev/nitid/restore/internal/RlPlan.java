@@ -101,6 +101,8 @@ public final class RlPlan implements AutoCloseable {
     /** Observed data on the grid, NaN where the weight is 0; null when the observed plane is used directly. */
     private final float[] dataGrid;
     private final float[] invS;
+    /** s for frames with masked pixels, allocated on the first such run and kept. */
+    private float[] invMasked;
     private final Method method;
     private final int threads;
 
@@ -238,7 +240,10 @@ public final class RlPlan implements AutoCloseable {
             }
             if (anyMasked) {
                 if (inv == null) {
-                    inv = new float[n];
+                    if (invMasked == null) {
+                        invMasked = new float[n];
+                    }
+                    inv = invMasked;
                 }
                 for (int i = 0; i < n; i++) {
                     tmp[i] = masked(d, w, i) ? 0f : 1f;
@@ -248,7 +253,7 @@ public final class RlPlan implements AutoCloseable {
                     inv[i] = inv[i] >= MIN_SENSITIVITY ? 1f / inv[i] : 0f;
                 }
             } else {
-                inv = null; // s = Σpsf = 1 everywhere for the reflective and periodic boundaries
+                inv = null; // s = Σpsf = 1 everywhere for the reflective and periodic boundaries, no mask
             }
         } else {
             inv = null;
