@@ -112,10 +112,7 @@ public record GaussianPsf(double fwhmMajor, double fwhmMinor, double angleDeg) i
 
     @Override
     public String description() {
-        return fwhmMinor == fwhmMajor
-                ? String.format(java.util.Locale.ROOT, "Gaussian, FWHM %s px", Psfs.num(fwhmMajor))
-                : String.format(java.util.Locale.ROOT, "Gaussian, FWHM %s x %s px at %s deg",
-                        Psfs.num(fwhmMajor), Psfs.num(fwhmMinor), Psfs.num(angleDeg));
+        return Psfs.ellipseText("Gaussian", fwhmMajor, fwhmMinor, angleDeg);
     }
 
     @Override

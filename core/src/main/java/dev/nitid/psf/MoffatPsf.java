@@ -131,11 +131,7 @@ public record MoffatPsf(double fwhmMajor, double fwhmMinor, double beta, double 
 
     @Override
     public String description() {
-        return (fwhmMinor == fwhmMajor
-                ? String.format(java.util.Locale.ROOT, "Moffat, FWHM %s px", Psfs.num(fwhmMajor))
-                : String.format(java.util.Locale.ROOT, "Moffat, FWHM %s x %s px at %s deg",
-                        Psfs.num(fwhmMajor), Psfs.num(fwhmMinor), Psfs.num(angleDeg)))
-                + String.format(java.util.Locale.ROOT, ", beta %s", Psfs.num(beta));
+        return Psfs.ellipseText("Moffat", fwhmMajor, fwhmMinor, angleDeg) + ", beta " + Psfs.num(beta);
     }
 
     @Override

@@ -181,6 +181,21 @@ public final class Psfs {
     }
 
     /**
+     * One line describing an elliptical profile's size, as the analytic models' {@code description()} use it.
+     *
+     * @param name      the family's display name, e.g. "Moffat"
+     * @param fwhmMajor major-axis FWHM, px
+     * @param fwhmMinor minor-axis FWHM, px
+     * @param angleDeg  major-axis angle, degrees
+     * @return "NAME, FWHM A px", or "NAME, FWHM A x B px at C deg" when elliptical
+     */
+    static String ellipseText(String name, double fwhmMajor, double fwhmMinor, double angleDeg) {
+        return fwhmMinor == fwhmMajor
+                ? name + ", FWHM " + num(fwhmMajor) + " px"
+                : name + ", FWHM " + num(fwhmMajor) + " x " + num(fwhmMinor) + " px at " + num(angleDeg) + " deg";
+    }
+
+    /**
      * A number for people: 4 significant digits, no trailing zeros ({@code 200}, {@code 0.33}, {@code 3.76}).
      *
      * @param v the number
