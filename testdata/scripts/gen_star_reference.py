@@ -14,6 +14,9 @@ Writes, under testdata/src/main/resources/dev/nitid/testdata/stars/:
   lsq_stamps.csv            two 15x15 noisy stamps (elliptical Gaussian, elliptical Moffat), one row per stamp
   lsq_curve_fit.csv         scipy.optimize.curve_fit (MINPACK Levenberg-Marquardt) parameters and standard errors
                             for the same models Nitid fits, on those stamps
+  dss_cutout_dao.csv        photutils DAOStarFinder on the Digitized Sky Survey cutout that python3-astropy
+                            ships (wcs/tests/data/dss.14.29.56-62.41.05.fits.gz): positions only, the image
+                            itself is read from the installed package by the tests, never copied
   versions.txt              library versions used
 
 Everything is deterministic (numpy PCG64 with fixed seeds). Coordinates: pixel (i, j) has its centre at
@@ -127,6 +130,19 @@ def main():
             f.write(f"{float(t['xcentroid']):.5f},{float(t['ycentroid']):.5f},{float(t['peak']):.6g},"
                     f"{float(t['flux']):.6g},{float(t['sharpness']):.5f},{float(t['roundness1']):.5f},"
                     f"{float(t['roundness2']):.5f}\n")
+    dss = os.path.join(os.path.dirname(astropy.__file__), "wcs/tests/data/dss.14.29.56-62.41.05.fits.gz")
+    from astropy.io import fits
+    ddata = fits.getdata(dss, 0).astype(np.float64)
+    dmean, dmed, dstd = sigma_clipped_stats(ddata, sigma=3.0, maxiters=10)
+    dtab = DAOStarFinder(fwhm=3.0, threshold=5.0 * dstd)(ddata - dmed)
+    with open(os.path.join(OUT, "dss_cutout_dao.csv"), "w") as f:
+        f.write(f"# photutils {photutils.__version__} DAOStarFinder(fwhm=3.0, threshold=5*std) on data - median of "
+                f"python3-astropy's wcs/tests/data/dss.14.29.56-62.41.05.fits.gz; sigma_clipped_stats(sigma=3, "
+                f"maxiters=10): median={dmed:.6g} std={dstd:.6g}; 0-based x=col, y=row\n")
+        f.write("x,y,peak,flux\n")
+        for t in dtab:
+            f.write(f"{float(t['xcentroid']):.5f},{float(t['ycentroid']):.5f},{float(t['peak']):.6g},"
+                    f"{float(t['flux']):.6g}\n")
     rows = stamp_models()
     with open(os.path.join(OUT, "lsq_stamps.csv"), "w") as f:
         f.write("# 15x15 stamps, row-major (y*15 + x), one stamp per line: gaussian, moffat; numpy PCG64 seed 7\n")

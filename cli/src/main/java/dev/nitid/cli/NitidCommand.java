@@ -28,6 +28,7 @@ import picocli.CommandLine.Command;
             PsfCommand.class,
             SimulateCommand.class,
             InfoCommand.class,
+            MeasureCommand.class,
             AutoComplete.GenerateCompletion.class,
         },
         footerHeading = "%nExit codes:%n",

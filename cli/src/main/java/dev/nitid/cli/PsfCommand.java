@@ -16,6 +16,8 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ForkJoinPool;
 import javax.imageio.ImageIO;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -29,15 +31,17 @@ import picocli.CommandLine.Spec;
  * optionally a preview picture.
  */
 @Command(name = "psf", mixinStandardHelpOptions = true, sortOptions = false,
-        description = {"Builds a PSF from a model and writes it as FITS: a Gaussian or Moffat of given FWHM,",
-            "or the diffraction pattern of a telescope (aperture, central obstruction, spider vanes,",
-            "Zernike aberrations, one wavelength or a band), optionally blurred by seeing and tracking",
-            "jitter. The PSF is odd-sized, centred on its middle pixel, pixel-integrated and sums to 1.",
+        description = {"Builds a PSF from a model and writes it as FITS: a Gaussian or Moffat of",
+            "given FWHM, or the diffraction pattern of a telescope (aperture, central",
+            "obstruction, spider vanes, Zernike aberrations, one wavelength or a band),",
+            "optionally blurred by seeing and tracking jitter. The PSF is odd-sized,",
+            "centred on its middle pixel, pixel-integrated and sums to 1.",
             "",
             "Examples:",
             "  nitid psf --model moffat --fwhm 3.2 --beta 3 -o moffat.fits",
-            "  nitid psf --model airy --aperture 200 --obstruction 0.33 --vanes 4 --vane-width 2 \\",
-            "      --focal-length 1000 --pixel-size 3.76 --band 500-600 --seeing 2 -o scope.fits --preview scope.png",
+            "  nitid psf --model airy --aperture 200 --obstruction 0.33 --vanes 4 \\",
+            "      --vane-width 2 --focal-length 1000 --pixel-size 3.76 --band 500-600 \\",
+            "      --seeing 2 -o scope.fits --preview scope.png",
             ""})
 public final class PsfCommand implements Callable<Integer> {
     @Spec
@@ -48,6 +52,10 @@ public final class PsfCommand implements Callable<Integer> {
 
     @Mixin
     PsfOptions psf;
+
+    @Option(names = "--size", paramLabel = "PX",
+            description = "PSF image side in pixels, odd (default: chosen from the model to hold its wings).")
+    Integer size;
 
     @Option(names = {"-o", "--output"}, paramLabel = "PSF.fits", required = true,
             description = "FITS file to write (float32).")
@@ -64,24 +72,26 @@ public final class PsfCommand implements Callable<Integer> {
     public Integer call() {
         return Failures.run(spec, common, () -> {
             PsfModel model = psf.toModel();
-            int size = psf.size();
+            int side = side();
             int os = psf.oversample();
             if (preview != null && !overwrite && Files.exists(preview)) {
                 throw new FitsException(FitsException.Kind.OUTPUT_EXISTS, preview, -1, null,
                         "the preview file exists (add --overwrite to replace it, or choose another name)");
             }
             long t0 = System.nanoTime();
-            Image image = model.render(size, os, 0, 0);
+            Image image = render(model, side, os, common.threads());
             PsfFigures figures = PsfFigures.of(image, model);
             double seconds = (System.nanoTime() - t0) / 1e9;
-            FitsHeader header = header(model, figures, size, os)
-                    .withHistory("command: nitid psf " + String.join(" ", spec.commandLine().getParseResult().originalArgs()));
+            FitsHeader header = header(model, figures, side, os)
+                    .withHistory("command: nitid " + String.join(" ", spec.commandLine().getParseResult().originalArgs()));
             FitsWriter.write(output, image, header, WriteOptions.defaults().withOverwrite(overwrite));
             if (preview != null) {
                 writePreview(model, image, figures);
             }
             PrintWriter err = spec.commandLine().getErr();
-            for (String w : figures.warnings()) {
+            java.util.List<String> warnings = new java.util.ArrayList<>(figures.warnings());
+            subPixelNote(model, os).ifPresent(warnings::add);
+            for (String w : warnings) {
                 if (!common.quiet()) {
                     err.println("nitid: warning: " + w);
                 }
@@ -90,7 +100,7 @@ public final class PsfCommand implements Callable<Integer> {
             if (!common.quiet()) {
                 PrintWriter out = spec.commandLine().getOut();
                 out.printf(Locale.ROOT, "wrote %s: %s PSF, %d x %d px, oversample %d, %.2f s%n", output,
-                        model.family(), size, size, os, seconds);
+                        model.family(), side, side, os, seconds);
                 out.println("  " + PsfPreview.summaryLine(figures));
                 if (preview != null) {
                     out.println("wrote " + preview);
@@ -99,6 +109,58 @@ public final class PsfCommand implements Callable<Integer> {
             }
             return ExitCode.OK;
         });
+    }
+
+    /** Sub-pixels coarser than this (in λ/D) make the midpoint-rule pixel integration visibly inexact. */
+    static final double FINE_SUBPIXEL_LD = 0.1;
+
+    /**
+     * For diffraction models, warns when the sub-pixels are coarse in λ/D: the midpoint rule then reads the
+     * central pixel high by about h²π²/24 of itself (h = sub-pixel in λ/D; error term of the midpoint rule,
+     * Davis &amp; Rabinowitz, with ∇²I/I ≈ −π² at the Airy core).
+     */
+    static java.util.Optional<String> subPixelNote(PsfModel model, int os) {
+        if (model.pixelOverNyquist().isEmpty()) {
+            return java.util.Optional.empty();
+        }
+        double pixelLd = model.pixelOverNyquist().getAsDouble() / 2;
+        double h = pixelLd / os;
+        if (h <= FINE_SUBPIXEL_LD) {
+            return java.util.Optional.empty();
+        }
+        int better = (int) Math.ceil(pixelLd / FINE_SUBPIXEL_LD);
+        return java.util.Optional.of(String.format(Locale.ROOT, "sub-pixels are %.2f lambda/D wide, so the central pixel"
+                + " may read about %.1f%% high (use --oversample %d or more for 0.1 lambda/D)",
+                h, 100 * h * h * Math.PI * Math.PI / 24, better));
+    }
+
+    private int side() {
+        if (size == null) {
+            return psf.autoSize();
+        }
+        if (size < 1 || size % 2 == 0) {
+            throw new IllegalArgumentException("--size is " + size
+                    + ", but the PSF side must be odd so its centre is a pixel (try " + Math.max(1, size | 1) + ")");
+        }
+        return size;
+    }
+
+    /** Renders inside a pool of {@code threads} workers (the pupil FFT spreads over the pool it runs in). */
+    static Image render(PsfModel model, int size, int os, int threads) throws InterruptedException {
+        ForkJoinPool pool = new ForkJoinPool(threads);
+        try {
+            return pool.submit(() -> model.render(size, os, 0, 0)).get();
+        } catch (ExecutionException e) {
+            if (e.getCause() instanceof RuntimeException r) {
+                throw r;
+            }
+            if (e.getCause() instanceof Error err) {
+                throw err;
+            }
+            throw new IllegalStateException(e.getCause());
+        } finally {
+            pool.shutdown();
+        }
     }
 
     private void writePreview(PsfModel model, Image image, PsfFigures figures) throws FitsException {
@@ -119,20 +181,7 @@ public final class PsfCommand implements Callable<Integer> {
     }
 
     static String title(PsfModel model) {
-        StringBuilder sb = new StringBuilder(model.family());
-        int n = 0;
-        for (PsfParameter p : model.parameters()) {
-            if (p.key().equals("PSFMODEL") || n >= 7) {
-                continue;
-            }
-            sb.append(n == 0 ? ": " : ", ").append(p.key().toLowerCase(Locale.ROOT)).append(' ').append(format(p.value()));
-            n++;
-        }
-        return sb.toString();
-    }
-
-    private static String format(Object v) {
-        return v instanceof Double d ? String.format(Locale.ROOT, "%.4g", d) : String.valueOf(v);
+        return model.description();
     }
 
     /** Every model parameter, the rendering settings, the derived figures and HISTORY (keywords in notes/psf.md). */
@@ -172,7 +221,7 @@ public final class PsfCommand implements Callable<Integer> {
             h = h.with("PLTSCALE", f.plateScaleArcsec().getAsDouble(), "[arcsec/px] 206.264806*PIXSIZE/FOCALLEN");
         }
         if (f.strehl().isPresent()) {
-            h = h.with("STREHL", f.strehl().getAsDouble(), "Strehl ratio at the image centre");
+            h = h.with("STREHL", f.strehl().getAsDouble(), "optical Strehl ratio (aberrations, no seeing)");
         }
         if (f.pixelOverNyquist().isPresent()) {
             h = h.with("NYQRATIO", f.pixelOverNyquist().getAsDouble(), "pixel / Nyquist pixel lambda_min/(2D)")

@@ -73,6 +73,10 @@ public final class Convolver implements AutoCloseable {
             case TILED -> true;
             case AUTO -> canTile && (long) fftW * fftH >= AUTO_TILE_MIN_PIXELS;
         };
+        if (!tiled && (long) fftH * (fftW + 2) > Integer.MAX_VALUE - 8) {
+            throw new IllegalArgumentException("the whole-plane FFT grid " + fftW + "x" + fftH
+                    + " exceeds 2^31 floats: use Tiling.TILED or AUTO");
+        }
         WorkerPool pool = new WorkerPool(settings.threads());
         try {
             this.engine = tiled

@@ -107,6 +107,10 @@ final class TiledEngine implements Engine {
     @Override
     public void correlate(float[] in, float[] out) {
         if (ext == null) {
+            if ((long) g.extW * g.extH > Integer.MAX_VALUE - 8) {
+                throw new IllegalArgumentException("the extended image " + g.extW + "x" + g.extH
+                        + " exceeds 2^31 pixels, too large for the adjoint: process the image in regions");
+            }
             ext = new float[g.extW * g.extH];
         }
         curIn = in;
@@ -152,7 +156,7 @@ final class TiledEngine implements Engine {
                 k.rowsForward(b, r0, r1);
             }
             k.columnsFilter(b, 0, stride / 2, otf, false);
-            k.rowsInverse(b, g.offY, g.offY + ny);
+            k.rowsInverse(b, g.offY, g.offY + ny, false);
             for (int r = 0; r < ny; r++) {
                 System.arraycopy(b, (g.offY + r) * stride + g.offX, curOut, (y0 + r) * g.w + x0, nx);
             }
@@ -194,7 +198,7 @@ final class TiledEngine implements Engine {
                 k.rowsForward(b, r0, r1);
             }
             k.columnsFilter(b, 0, stride / 2, otf, true);
-            k.rowsInverse(b, g.cy, g.cy + ny);
+            k.rowsInverse(b, g.cy, g.cy + ny, false);
             for (int r = 0; r < ny; r++) {
                 System.arraycopy(b, (g.cy + r) * stride + g.cx, ext, (e0y + r) * g.extW + e0x, nx);
             }

@@ -3,8 +3,8 @@ package dev.nitid.fft;
 /** Whether a {@link Convolver} transforms the whole padded image at once or works in overlap-save tiles. */
 public enum Tiling {
     /**
-     * Choose by the measured rule documented on {@link Convolver}: tiles for images large enough that
-     * the tiles' smaller working set pays, the whole plane otherwise. The default.
+     * Choose by the measured rule documented on {@link Convolver}: tiles when the whole-plane grid has at
+     * least 768² pixels, the whole plane otherwise. The default.
      */
     AUTO,
     /**
@@ -13,8 +13,8 @@ public enum Tiling {
      */
     WHOLE_PLANE,
     /**
-     * Overlap-save: the output is cut into tiles, each convolved with one small FFT over the tile plus a
-     * halo of PSF size − 1, tiles in parallel. Cache-friendly and memory-bounded (a few tiles per thread);
+     * Overlap-save: the output is cut into tiles, each convolved with one small power-of-two FFT over the
+     * tile plus a halo of PSF size − 1, tiles in parallel. Cache-friendly and memory-bounded (a few tiles per thread);
      * equals the whole-plane result within float round-off (Oppenheim &amp; Schafer, <i>Discrete-Time
      * Signal Processing</i>, 3rd ed. 2010, §8.7.3).
      */

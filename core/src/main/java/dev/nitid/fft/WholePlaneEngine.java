@@ -124,7 +124,7 @@ final class WholePlaneEngine implements Engine {
     }
 
     private void convStore(int t, int y0, int y1) {
-        kernels[t].rowsInverse(buf, y0 + g.offY, y1 + g.offY);
+        kernels[t].rowsInverse(buf, y0 + g.offY, y1 + g.offY, false);
         for (int y = y0; y < y1; y++) {
             System.arraycopy(buf, (y + g.offY) * stride + g.offX, curOut, y * g.w, g.w);
         }
@@ -133,7 +133,7 @@ final class WholePlaneEngine implements Engine {
     private void corrInverse(int t, int y0, int y1) {
         for (int ye = y0; ye < y1; ye++) {
             if (g.mapY[ye] >= 0) {
-                kernels[t].rowsInverse(buf, ye, ye + 1);
+                kernels[t].rowsInverse(buf, ye, ye + 1, false);
             }
         }
     }

@@ -1,5 +1,6 @@
 package dev.nitid.psf;
 
+import dev.nitid.image.Image;
 import dev.nitid.psf.internal.Grids;
 import java.util.List;
 
@@ -88,14 +89,33 @@ public record GaussianPsf(double fwhmMajor, double fwhmMinor, double angleDeg) i
 
     @Override
     public double value(double x, double y) {
-        double t = Math.toRadians(angleDeg);
-        double c = Math.cos(t);
-        double s = Math.sin(t);
-        double u = x * c + y * s;
-        double v = -x * s + y * c;
+        return shape().value(x, y);
+    }
+
+    /** The quadratic form and norm, computed once per render rather than per sample. */
+    private EllipticalProfile shape() {
         double sa = sigmaMajor();
         double sb = sigmaMinor();
-        return Math.exp(-0.5 * (u * u / (sa * sa) + v * v / (sb * sb))) / (2 * Math.PI * sa * sb);
+        return new EllipticalProfile(angleDeg, sa, sb, 1 / (2 * Math.PI * sa * sb),
+                q -> Math.exp(-0.5 * q));
+    }
+
+    @Override
+    public java.util.function.DoubleBinaryOperator evaluator() {
+        return shape()::value;
+    }
+
+    @Override
+    public Image renderOversampled(int size, int oversample, double dx, double dy) {
+        return shape().renderOversampled(size, oversample, dx, dy);
+    }
+
+    @Override
+    public String description() {
+        return fwhmMinor == fwhmMajor
+                ? String.format(java.util.Locale.ROOT, "Gaussian, FWHM %s px", Psfs.num(fwhmMajor))
+                : String.format(java.util.Locale.ROOT, "Gaussian, FWHM %s x %s px at %s deg",
+                        Psfs.num(fwhmMajor), Psfs.num(fwhmMinor), Psfs.num(angleDeg));
     }
 
     @Override

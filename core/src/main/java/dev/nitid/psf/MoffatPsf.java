@@ -1,5 +1,6 @@
 package dev.nitid.psf;
 
+import dev.nitid.image.Image;
 import dev.nitid.psf.internal.Grids;
 import java.util.List;
 
@@ -107,15 +108,34 @@ public record MoffatPsf(double fwhmMajor, double fwhmMinor, double beta, double 
 
     @Override
     public double value(double x, double y) {
-        double t = Math.toRadians(angleDeg);
-        double c = Math.cos(t);
-        double s = Math.sin(t);
-        double u = x * c + y * s;
-        double v = -x * s + y * c;
+        return shape().value(x, y);
+    }
+
+    /** The quadratic form and norm, computed once per render rather than per sample. */
+    private EllipticalProfile shape() {
         double aa = alphaMajor();
         double ab = alphaMinor();
-        double q = 1 + u * u / (aa * aa) + v * v / (ab * ab);
-        return (beta - 1) / (Math.PI * aa * ab) * Math.pow(q, -beta);
+        double b = beta;
+        return new EllipticalProfile(angleDeg, aa, ab, (b - 1) / (Math.PI * aa * ab), q -> Math.pow(1 + q, -b));
+    }
+
+    @Override
+    public java.util.function.DoubleBinaryOperator evaluator() {
+        return shape()::value;
+    }
+
+    @Override
+    public Image renderOversampled(int size, int oversample, double dx, double dy) {
+        return shape().renderOversampled(size, oversample, dx, dy);
+    }
+
+    @Override
+    public String description() {
+        return (fwhmMinor == fwhmMajor
+                ? String.format(java.util.Locale.ROOT, "Moffat, FWHM %s px", Psfs.num(fwhmMajor))
+                : String.format(java.util.Locale.ROOT, "Moffat, FWHM %s x %s px at %s deg",
+                        Psfs.num(fwhmMajor), Psfs.num(fwhmMinor), Psfs.num(angleDeg)))
+                + String.format(java.util.Locale.ROOT, ", beta %s", Psfs.num(beta));
     }
 
     @Override

@@ -74,6 +74,15 @@ public interface PsfModel {
     String family();
 
     /**
+     * A one-line plain description for people, e.g. {@code "Moffat, FWHM 3.2 px, beta 3"}.
+     *
+     * @return the description (the family name unless the model says more)
+     */
+    default String description() {
+        return family();
+    }
+
+    /**
      * Every parameter of the model, in a stable order, as short keywords with values and comments
      * (ready to write into a FITS header; see {@code notes/psf.md} for the list).
      *

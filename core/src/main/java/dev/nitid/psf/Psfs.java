@@ -180,6 +180,19 @@ public final class Psfs {
         return new PreparedPsf(out, clipped, rx, ry, warnings);
     }
 
+    /**
+     * A number for people: 4 significant digits, no trailing zeros ({@code 200}, {@code 0.33}, {@code 3.76}).
+     *
+     * @param v the number
+     * @return its text
+     */
+    public static String num(double v) {
+        if (!Double.isFinite(v)) {
+            return Double.toString(v);
+        }
+        return new java.math.BigDecimal(v).round(new java.math.MathContext(4)).stripTrailingZeros().toPlainString();
+    }
+
     private static String fmt(double v) {
         return String.format(java.util.Locale.ROOT, "%.2f", v);
     }

@@ -5,6 +5,7 @@ import dev.nitid.psf.internal.Grids;
 import dev.nitid.psf.internal.PupilEngine;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Locale;
 import java.util.Map;
 import java.util.OptionalDouble;
 
@@ -45,7 +46,10 @@ public record PupilPsf(double apertureMm, double obstruction, int vanes, double 
     /** Arcseconds per radian, 648000/π. */
     public static final double ARCSEC_PER_RADIAN = 648000 / Math.PI;
 
-    /** Default fewest pupil samples across the diameter: edges are grey, so 128 keeps errors ≲ 1e-3 of the peak. */
+    /**
+     * Default fewest pupil samples across the diameter. Edges are grey, so 128 samples keep the pattern within
+     * 2e-4 of the peak of the analytic (annular) Airy pattern out to 10 λ/D (measured; notes/psf.md).
+     */
     public static final int DEFAULT_PUPIL_SAMPLES = 128;
 
     /** Validates every setting. */
@@ -239,6 +243,26 @@ public record PupilPsf(double apertureMm, double obstruction, int vanes, double 
     }
 
     @Override
+    public String description() {
+        StringBuilder sb = new StringBuilder(String.format(Locale.ROOT, "diffraction: D %s mm", Psfs.num(apertureMm)));
+        if (obstruction > 0) {
+            sb.append(String.format(Locale.ROOT, ", obstruction %s", Psfs.num(obstruction)));
+        }
+        if (vanes > 0) {
+            sb.append(String.format(Locale.ROOT, ", %d vanes %s mm", vanes, Psfs.num(vaneWidthMm)));
+        }
+        sb.append(String.format(Locale.ROOT, ", f %s mm, %s um pixels, ", Psfs.num(focalLengthMm),
+                Psfs.num(pixelSizeUm)));
+        sb.append(spectrum.size() == 1 ? String.format(Locale.ROOT, "%s nm", Psfs.num(spectrum.wavelength(0)))
+                : String.format(Locale.ROOT, "%s-%s nm (%d wavelengths)", Psfs.num(spectrum.edgesNm()[0]), 
+                        Psfs.num(spectrum.edgesNm()[1]), spectrum.size()));
+        if (!zernike.isNone()) {
+            sb.append(", Zernike ").append(zernike);
+        }
+        return sb.toString();
+    }
+
+    @Override
     public String family() {
         return "airy";
     }
@@ -256,6 +280,10 @@ public record PupilPsf(double apertureMm, double obstruction, int vanes, double 
         p.add(PsfParameter.of("PIXSIZE", pixelSizeUm, "[um] detector pixel pitch"));
         p.add(PsfParameter.of("WAVEMIN", spectrum.shortestNm(), "[nm] shortest wavelength sampled"));
         p.add(PsfParameter.of("WAVEMAX", spectrum.longestNm(), "[nm] longest wavelength sampled"));
+        if (spectrum.size() > 1) {
+            p.add(PsfParameter.of("BANDLO", spectrum.edgesNm()[0], "[nm] short edge of the band"));
+            p.add(PsfParameter.of("BANDHI", spectrum.edgesNm()[1], "[nm] long edge of the band"));
+        }
         p.add(PsfParameter.of("NWAVE", (long) spectrum.size(), "wavelengths summed, equal photon weights"));
         for (Map.Entry<Integer, Double> e : zernike.nonZero().entrySet()) {
             p.add(PsfParameter.of("ZERN" + e.getKey(), e.getValue(), "[waves RMS] Zernike Noll " + e.getKey()

@@ -123,6 +123,27 @@ public record Spectrum(double[] wavelengthsNm, double[] weights) {
         return Arrays.stream(wavelengthsNm).max().orElseThrow();
     }
 
+    /**
+     * The band the samples stand for: for equally spaced samples with equal weights (as {@link #band} makes),
+     * the edges half a step beyond the outer samples; otherwise the shortest and longest wavelength.
+     *
+     * @return {short edge, long edge}, nm
+     */
+    public double[] edgesNm() {
+        int n = wavelengthsNm.length;
+        if (n < 2) {
+            return new double[] {wavelengthsNm[0], wavelengthsNm[0]};
+        }
+        double step = (wavelengthsNm[n - 1] - wavelengthsNm[0]) / (n - 1);
+        boolean even = step > 0;
+        for (int i = 1; i < n && even; i++) {
+            even = Math.abs(wavelengthsNm[i] - wavelengthsNm[i - 1] - step) <= 1e-9 * wavelengthsNm[i]
+                    && Math.abs(weights[i] - weights[0]) <= 1e-12;
+        }
+        return even ? new double[] {wavelengthsNm[0] - step / 2, wavelengthsNm[n - 1] + step / 2}
+                : new double[] {shortestNm(), longestNm()};
+    }
+
     /** @return photon-weighted mean wavelength, nm */
     public double meanNm() {
         double m = 0;

@@ -12,8 +12,8 @@ package dev.nitid.restore;
  * and the per-pixel variance is {@code v = (K o + c) / g}. Negative pixels of a sky-subtracted frame stay
  * valid as long as {@code d + c ≥ 0}; smaller values are treated as 0 in the ratio.
  *
- * <p>{@link #estimated()} derives the model from each plane: sky level {@code m} = median and noise
- * {@code σ} = 1.4826·MAD of the unmasked pixels; the pedestal lifts the sky to at least
+ * <p>{@link #estimated()} derives the model from each plane: sky level {@code m} (3σ-clipped median) and
+ * noise {@code σ} (1.4826·MAD of neighbouring-pixel differences / √2, blind to smooth nebulae); the pedestal lifts the sky to at least
  * {@link #MIN_SKY_SIGMAS}·σ ({@code P = max(0, MIN_SKY_SIGMAS·σ − m)}), read noise 0, and the gain follows
  * from Poisson statistics of the sky, {@code g = (m + P) / σ²}.
  *

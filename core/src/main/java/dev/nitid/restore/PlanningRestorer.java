@@ -4,6 +4,7 @@ import dev.nitid.image.Image;
 import dev.nitid.image.ImageStats;
 import dev.nitid.restore.internal.FrequencyFilter;
 import dev.nitid.restore.internal.RlPlan;
+import dev.nitid.restore.internal.SkyNoise;
 import dev.nitid.restore.internal.StarFloor;
 import java.util.ArrayList;
 import java.util.List;
@@ -37,82 +38,85 @@ final class PlanningRestorer implements Restorer {
         List<PlaneReport> reports = new ArrayList<>();
         RlPlan plan = null;
         FrequencyFilter filter = null;
-        for (int p = 0; p < observed.planes(); p++) {
-            long t0 = System.nanoTime();
-            boolean newPsf = p == 0 || psf.planes() > 1;
-            Image k = newPsf ? normalised(psf, psf.planes() > 1 ? p : 0) : null;
-            float[] d = observed.plane(p);
-            boolean[] valid = validity(d);
-            long masked = 0;
-            for (int i = 0; i < d.length; i++) {
-                if (!Float.isFinite(d[i]) || (valid != null && !valid[i])) {
-                    masked++;
+        try {
+            for (int p = 0; p < observed.planes(); p++) {
+                long t0 = System.nanoTime();
+                boolean newPsf = p == 0 || psf.planes() > 1;
+                Image k = newPsf ? normalised(psf, psf.planes() > 1 ? p : 0) : null;
+                float[] d = observed.plane(p);
+                boolean[] valid = validity(d);
+                long masked = 0;
+                for (int i = 0; i < d.length; i++) {
+                    if (!Float.isFinite(d[i]) || (valid != null && !valid[i])) {
+                        masked++;
+                    }
+                }
+                SkyNoise.Estimate est = SkyNoise.of(d, valid, w, h);
+                double sky = Double.isNaN(est.sky()) ? 0 : est.sky();
+                double sigma = est.sigma() > 0 ? est.sigma() : fallbackSigma(observed.stats(p));
+                NoiseModel noise = settings.noise().isEstimated() ? estimate(sky, sigma) : settings.noise();
+                Method m = settings.method();
+                if (m.iterative()) {
+                    if (newPsf) {
+                        if (plan != null) {
+                            plan.close();
+                        }
+                        plan = new RlPlan(w, h, k, settings.edges(), m, settings.threads());
+                    }
+                    StarProtection prot = settings.protection();
+                    StarFloor.Floor floor = null;
+                    if (prot.guard() != StarGuard.NONE) {
+                        Image kp = k != null ? k : normalised(psf, 0);
+                        double radius = Math.max(StarFloor.MIN_RADIUS,
+                                prot.radiusFactor() * StarFloor.psfRadius(kp.plane(0), kp.width(), kp.height()));
+                        int padX = (plan.gridWidth() - w) / 2;
+                        int padY = (plan.gridHeight() - h) / 2;
+                        floor = StarFloor.build(d, valid, w, h, sky, sigma, prot.detectSigma(), radius,
+                                prot.marginSigma(), plan.gridWidth(), padX, padY, prot.guard() == StarGuard.RING_FLOOR);
+                    }
+                    double tiny = sigma > 0 ? 1e-3 * sigma : 1e-6;
+                    RlPlan.Params params = new RlPlan.Params(m, noise.offset(), noise.gain(), settings.tvWeight(),
+                            tiny, settings.dampingSigma());
+                    long setup = System.nanoTime() - t0;
+                    RlPlan.Outcome oc = plan.run(d, valid, floor, true, out.plane(p), params,
+                            RlPlan.Conventions.standard(tiny), settings.stopping(), p, listener, cancelled);
+                    reports.add(new PlaneReport(oc.iterations(), oc.reason(), oc.history(), noise, masked,
+                            floor == null ? 0 : floor.stars(), setup, oc.nanos()));
+                    if (oc.reason() == StopReason.CANCELLED) {
+                        // the remaining planes keep the observed data so the output is still an image of the scene
+                        for (int q = p + 1; q < observed.planes(); q++) {
+                            System.arraycopy(observed.plane(q), 0, out.plane(q), 0, d.length);
+                        }
+                        break;
+                    }
+                } else {
+                    if (newPsf) {
+                        if (filter != null) {
+                            filter.close();
+                        }
+                        filter = new FrequencyFilter(w, h, k, settings.edges(), settings.threads());
+                    }
+                    float[] filled = d.clone();
+                    for (int i = 0; i < filled.length; i++) {
+                        if (!Float.isFinite(filled[i]) || (valid != null && !valid[i])) {
+                            filled[i] = (float) sky; // a flat fill: the frequency filters have no weights
+                        }
+                    }
+                    long setup = System.nanoTime() - t0;
+                    long t1 = System.nanoTime();
+                    FrequencyFilter.Kind kind = m == Method.TIKHONOV ? FrequencyFilter.Kind.TIKHONOV : FrequencyFilter.Kind.WIENER;
+                    filter.apply(filled, out.plane(p), kind, settings.regularisation(), sigma);
+                    reports.add(new PlaneReport(0, StopReason.SINGLE_PASS, List.of(), noise, masked, 0, setup,
+                            System.nanoTime() - t1));
                 }
             }
-            ImageStats st = ImageStats.of(validCopy(d, valid));
-            double sky = Double.isNaN(st.median()) ? 0 : st.median();
-            double sigma = st.madSigma() > 0 ? st.madSigma() : fallbackSigma(st);
-            NoiseModel noise = settings.noise().isEstimated() ? estimate(sky, sigma) : settings.noise();
-            Method m = settings.method();
-            if (m.iterative()) {
-                if (newPsf) {
-                    if (plan != null) {
-                        plan.close();
-                    }
-                    plan = new RlPlan(w, h, k, settings.edges(), m, settings.threads());
-                }
-                StarProtection prot = settings.protection();
-                StarFloor.Floor floor = null;
-                if (prot.guard() != StarGuard.NONE) {
-                    Image kp = k != null ? k : normalised(psf, 0);
-                    double radius = Math.max(StarFloor.MIN_RADIUS,
-                            prot.radiusFactor() * StarFloor.psfRadius(kp.plane(0), kp.width(), kp.height()));
-                    int padX = (plan.gridWidth() - w) / 2;
-                    int padY = (plan.gridHeight() - h) / 2;
-                    floor = StarFloor.build(d, valid, w, h, sky, sigma, prot.detectSigma(), radius,
-                            prot.marginSigma(), plan.gridWidth(), padX, padY, prot.guard() == StarGuard.RING_FLOOR);
-                }
-                double tiny = sigma > 0 ? 1e-3 * sigma : 1e-6;
-                RlPlan.Params params = new RlPlan.Params(m, noise.offset(), noise.gain(), settings.tvWeight(),
-                        tiny, settings.dampingSigma());
-                long setup = System.nanoTime() - t0;
-                RlPlan.Outcome oc = plan.run(d, valid, floor, true, out.plane(p), params,
-                        RlPlan.Conventions.standard(tiny), settings.stopping(), p, listener, cancelled);
-                reports.add(new PlaneReport(oc.iterations(), oc.reason(), oc.history(), noise, masked,
-                        floor == null ? 0 : floor.stars(), setup, oc.nanos()));
-                if (oc.reason() == StopReason.CANCELLED) {
-                    // the remaining planes keep the observed data so the output is still an image of the scene
-                    for (int q = p + 1; q < observed.planes(); q++) {
-                        System.arraycopy(observed.plane(q), 0, out.plane(q), 0, d.length);
-                    }
-                    break;
-                }
-            } else {
-                if (newPsf) {
-                    if (filter != null) {
-                        filter.close();
-                    }
-                    filter = new FrequencyFilter(w, h, k, settings.edges(), settings.threads());
-                }
-                float[] filled = d.clone();
-                for (int i = 0; i < filled.length; i++) {
-                    if (!Float.isFinite(filled[i]) || (valid != null && !valid[i])) {
-                        filled[i] = (float) sky; // a flat fill: the frequency filters have no weights
-                    }
-                }
-                long setup = System.nanoTime() - t0;
-                long t1 = System.nanoTime();
-                FrequencyFilter.Kind kind = m == Method.TIKHONOV ? FrequencyFilter.Kind.TIKHONOV : FrequencyFilter.Kind.WIENER;
-                filter.apply(filled, out.plane(p), kind, settings.regularisation(), sigma);
-                reports.add(new PlaneReport(0, StopReason.SINGLE_PASS, List.of(), noise, masked, 0, setup,
-                        System.nanoTime() - t1));
+        } finally {
+            if (plan != null) {
+                plan.close();
             }
-        }
-        if (plan != null) {
-            plan.close();
-        }
-        if (filter != null) {
-            filter.close();
+            if (filter != null) {
+                filter.close();
+            }
         }
         return new RestorationResult(out, reports);
     }
@@ -143,19 +147,6 @@ final class PlanningRestorer implements Restorer {
             v[i] = Float.isFinite(d[i]) && d[i] < sat;
         }
         return v;
-    }
-
-    private static float[] validCopy(float[] d, boolean[] valid) {
-        if (valid == null) {
-            return d;
-        }
-        float[] c = d.clone();
-        for (int i = 0; i < c.length; i++) {
-            if (!valid[i]) {
-                c[i] = Float.NaN;
-            }
-        }
-        return c;
     }
 
     private static Image normalised(Image psf, int p) {

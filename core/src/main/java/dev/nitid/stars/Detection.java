@@ -3,7 +3,8 @@ package dev.nitid.stars;
 /**
  * One local maximum found by the matched filter, and what became of it.
  *
- * @param x            x of the fitted centre when the star was fitted, else of the filtered maximum
+ * @param x            x of the fitted centre when the star was fitted, else of the filtered maximum refined by
+ *                     a parabola through its neighbours
  * @param y            y, likewise
  * @param significance filtered value over the filtered noise (≥ the detection threshold k)
  * @param accepted     true if the star was used for the measurement

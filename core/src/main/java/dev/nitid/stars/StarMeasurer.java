@@ -1,5 +1,7 @@
 package dev.nitid.stars;
 
+import dev.nitid.fits.FitsHeader;
+import dev.nitid.fits.FitsImage;
 import dev.nitid.image.Image;
 import dev.nitid.stars.fit.FitSettings;
 import dev.nitid.stars.internal.Parallel;
@@ -56,8 +58,72 @@ public final class StarMeasurer {
         return measure(image.plane(0), image.width(), image.height(), settings);
     }
 
+    /**
+     * Measures a frame read from FITS: colour planes are averaged into one luminance plane, and when
+     * {@code settings.saturation()} is NaN the level comes from {@link #saturationLevel}.
+     *
+     * @param frame    the frame (input, not modified)
+     * @param settings thresholds and options
+     * @return the measurement
+     */
+    public static StarMeasurement measure(FitsImage frame, MeasureSettings settings) {
+        MeasureSettings s = settings;
+        if (Double.isNaN(s.saturation())) {
+            java.util.OptionalDouble sat = saturationLevel(frame.header(), frame.bitpix());
+            if (sat.isPresent()) {
+                s = s.withSaturation(sat.getAsDouble());
+            }
+        }
+        return measure(luminance(frame.image()), s);
+    }
+
+    /**
+     * The saturation level a header implies: the {@code SATURATE} keyword (common in survey and
+     * observatory pipelines, no standard) if present, else the ceiling of the integer data type after
+     * scaling, {@code BZERO + BSCALE·(2^(BITPIX−1) − 1)} (unsigned 8-bit: 255·BSCALE + BZERO; FITS
+     * standard 4.0 §5.2.5), minus one step since converters often clip one count below the ceiling.
+     * Floating-point data have no ceiling.
+     *
+     * @param h      header (input, not modified)
+     * @param bitpix BITPIX of the data
+     * @return the level, or empty when unknown
+     */
+    public static java.util.OptionalDouble saturationLevel(FitsHeader h, int bitpix) {
+        java.util.OptionalDouble sat = h.getDouble("SATURATE");
+        if (sat.isPresent() && Double.isFinite(sat.getAsDouble())) {
+            return sat;
+        }
+        if (bitpix < 0) {
+            return java.util.OptionalDouble.empty();
+        }
+        double bz = h.getDouble("BZERO").orElse(0);
+        double bs = h.getDouble("BSCALE").orElse(1);
+        double rawMax = bitpix == 8 ? 255 : Math.pow(2, bitpix - 1) - 1;
+        return java.util.OptionalDouble.of(bz + bs * (rawMax - 1));
+    }
+
+    /**
+     * One plane to measure: the plane itself, or the mean of the planes of a colour image.
+     *
+     * @param image the image (input, not modified)
+     * @return plane 0 (shared, not copied) or a new mean plane
+     */
+    public static Image luminance(Image image) {
+        if (image.planes() == 1) {
+            return image;
+        }
+        float[] out = new float[image.pixelCount()];
+        for (int p = 0; p < image.planes(); p++) {
+            float[] a = image.plane(p);
+            for (int i = 0; i < out.length; i++) {
+                out[i] += a[i] / image.planes();
+            }
+        }
+        return Image.wrap(image.width(), image.height(), out);
+    }
+
     /** A local maximum of the filtered image. */
-    private record Candidate(int x, int y, float filtered, int index, double significance) {
+    private record Candidate(int x, int y, float filtered, int index, double significance, double subX, double subY) {
     }
 
     /**
@@ -102,7 +168,7 @@ public final class StarMeasurer {
         int skipped = 0;
         for (int ci = 0; ci < cands.size(); ci++) {
             Candidate c = cands.get(ci);
-            where[ci] = new double[] {c.x(), c.y()};
+            where[ci] = new double[] {c.subX(), c.subY()};
             RejectReason why = cheapReject(c, pixels, resid, width, height, grid, s);
             if (why != null) {
                 rejected.merge(why, 1, Integer::sum);
@@ -399,7 +465,9 @@ public final class StarMeasurer {
                 if (found == null) {
                     found = new ArrayList<>();
                 }
-                found.add(new Candidate(x, y, v, row + x, v / (noiseGain * bg.noiseAt(x, y))));
+                found.add(new Candidate(x, y, v, row + x, v / (noiseGain * bg.noiseAt(x, y)),
+                        x + vertex(filt, row + x, 1, x > 0, x < w - 1),
+                        y + vertex(filt, row + x, w, y > 0, y < h - 1)));
             }
             rows[y] = found;
         });
@@ -412,6 +480,24 @@ public final class StarMeasurer {
         all.sort((p, q) -> p.filtered() != q.filtered() ? Float.compare(q.filtered(), p.filtered())
                 : Integer.compare(p.index(), q.index()));
         return all;
+    }
+
+    /**
+     * Sub-pixel offset of a maximum along one axis: the vertex of the parabola through the three filtered values
+     * (common practice, no source), limited to ±0.5 px; 0 at the image edge.
+     */
+    private static double vertex(float[] f, int i, int step, boolean hasLow, boolean hasHigh) {
+        if (!hasLow || !hasHigh) {
+            return 0;
+        }
+        double a = f[i - step];
+        double b = f[i];
+        double c = f[i + step];
+        double den = a - 2 * b + c;
+        if (!(den < 0)) {
+            return 0;
+        }
+        return Math.max(-0.5, Math.min(0.5, 0.5 * (a - c) / den));
     }
 
     /** True if (x, y) is the largest within the separation box; equal values go to the first in memory. */

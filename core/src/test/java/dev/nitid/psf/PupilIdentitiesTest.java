@@ -108,18 +108,28 @@ class PupilIdentitiesTest {
     }
 
     /**
-     * Pixel-integrated Airy at Nyquist sampling (p = λ/2D), source centred: central pixel 0.177327 and
-     * 3×3 block 0.766734 of the total flux (pixel_integrated_airy.csv, scipy dblquad). Oversampling 9 is
-     * the midpoint rule on 9×9 sub-pixels, whose error is (h²/24)·∇²f per unit area (Davis &amp;
-     * Rabinowitz, Methods of Numerical Integration, midpoint rule); at the Airy core ∇²I/I ≈ −π² (λ/D)⁻²,
-     * so with h = 0.5/9 λ/D the central pixel reads high by ≈ 1.3e-3 relative, 2.3e-4 absolute.
-     * Tolerance: that bound plus the FFT builder's 2e-3-of-peak per sample times the pixel's peak share.
+     * Pixel-integrated Airy, source centred: fraction of the total flux in the central pixel and the central
+     * 3×3 block (pixel_integrated_airy.csv, scipy dblquad), e.g. at Nyquist (p = λ/2D, ε = 0) 0.177327 and
+     * 0.766734. Oversampling k is the midpoint rule on k×k sub-pixels, whose error is (h²/24)·∇²f per unit
+     * area (Davis &amp; Rabinowitz, Methods of Numerical Integration, midpoint rule); at the core
+     * ∇²I/I ≈ −π²(1 + ε²) (λ/D)⁻² (from the small-v expansion of the (annular) Airy amplitude), so with
+     * h = p/k λ/D the central pixel reads high by about h²π²(1 + ε²)/24 of itself. Tolerance: that term
+     * plus 1e-4 (reference README §2a, "analytic builder with adequate sub-sampling").
      */
-    @Test
-    void pixelIntegratedAiryAtNyquist() {
-        Map<String, String> ref = RefCsv.row("pixel_integrated_airy.csv", "pixel_lambda_over_D", "0.5");
-        int os = 9;
-        PupilPsf m = PupilPsf.ofSampling(0.5, 550);
+    @ParameterizedTest(name = "eps {0}, pixel {1} λ/D")
+    @CsvSource({"0,0.25", "0,0.5", "0,1", "0.33,0.25", "0.33,0.5", "0.33,1"})
+    void pixelIntegratedAiry(String eps, String pixel) {
+        Map<String, String> ref = null;
+        for (Map<String, String> r : RefCsv.rows("pixel_integrated_airy.csv")) {
+            if (Double.parseDouble(r.get("eps")) == Double.parseDouble(eps)
+                    && Double.parseDouble(r.get("pixel_lambda_over_D")) == Double.parseDouble(pixel)) {
+                ref = r;
+            }
+        }
+        double p = Double.parseDouble(pixel);
+        double e = Double.parseDouble(eps);
+        int os = 2 * (int) Math.ceil(p / 0.06 / 2) + 1;
+        PupilPsf m = PupilPsf.ofSampling(p, 550).withObstruction(e);
         Image fine = m.renderDetailed(3, os, 0, 0).fine();
         double centre = 0;
         double block = 0;
@@ -132,14 +142,15 @@ class PupilIdentitiesTest {
                 }
             }
         }
-        double h = 0.5 / os;
-        double midpoint = h * h / 24 * Math.PI * Math.PI;
-        double tolCentre = midpoint * 0.1773 + 2e-3 * 0.1963 * 0.01;
-        assertEquals(RefCsv.num(ref, "frac_central_pixel"), centre, tolCentre + 1e-4, "central pixel flux fraction");
-        assertEquals(RefCsv.num(ref, "frac_central_3x3"), block, midpoint * 0.77 + 1e-4, "central 3x3 flux fraction");
-        double point = PupilPsf.ofSampling(0.5, 550).renderDetailed(3, 1, 0, 0).fine().get(1, 1);
-        assertEquals(RefCsv.num(ref, "point_sampled_peak_P0_times_p2"), point, 2e-3 * point,
-                "point sampling gives π/4·p² instead");
+        double h = p / os;
+        double midpoint = h * h * Math.PI * Math.PI * (1 + e * e) / 24;
+        double expCentre = RefCsv.num(ref, "frac_central_pixel");
+        double expBlock = RefCsv.num(ref, "frac_central_3x3");
+        assertEquals(expCentre, centre, midpoint * expCentre + 1e-4, "central pixel flux fraction");
+        assertEquals(expBlock, block, midpoint * expBlock + 1e-4, "central 3x3 flux fraction");
+        double point = m.renderDetailed(3, 1, 0, 0).fine().get(1, 1);
+        double expPoint = RefCsv.num(ref, "point_sampled_peak_P0_times_p2");
+        assertEquals(expPoint, point, 2e-3 * expPoint, "point sampling gives P(0)·p² instead");
     }
 
     /**

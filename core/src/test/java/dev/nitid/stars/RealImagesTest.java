@@ -24,6 +24,13 @@ class RealImagesTest {
     static final Path M51 = Path.of("/usr/lib/python3/dist-packages/skimage/data/simple.fits");
     /** Digitized Sky Survey cutout (python3-astropy 5.2.1). */
     static final Path DSS = Path.of("/usr/lib/python3/dist-packages/astropy/wcs/tests/data/dss.14.29.56-62.41.05.fits.gz");
+    /**
+     * Share of photutils' 131 sources in the crowded DSS cutout that we must also detect within 1 px (with a
+     * 2-px separation; measured 99 of 131 = 76 %). Lower than the 95 % met on the uncrowded golden field: pairs
+     * closer than about one FWHM merge into one peak of our Gaussian matched filter, which DAOStarFinder's
+     * zero-sum kernel splits, and the frame's saturated plate stars break into several DAO sources.
+     */
+    private static final double DSS_MATCHED = 0.72;
     /** Positions of isolated unsaturated stars, px (reference README §8 suggested tolerance). */
     private static final double POSITION_PX = 0.3;
     /** Same method as the reference (point-sampled Gaussian + constant, 11×11 box): only solver noise differs. */
@@ -131,7 +138,8 @@ class RealImagesTest {
         assumeTrue(Files.isReadable(DSS), "python3-astropy not installed");
         Image img = read(DSS);
         StarMeasurement m = StarMeasurer.measure(img,
-                MeasureSettings.defaults().withMinStars(1).withBackground(BackgroundSettings.defaults().withMeshSize(25)));
+                MeasureSettings.defaults().withMinStars(1).withBackground(BackgroundSettings.defaults().withMeshSize(25))
+                        .withMinSeparation(2));
         int matched = 0;
         List<double[]> ref = golden("real_stars_dss_cutout.csv");
         for (double[] r : ref) {
@@ -143,5 +151,18 @@ class RealImagesTest {
             }
         }
         assertTrue(matched >= 9, matched + " of " + ref.size() + " matched; our detections: " + m.detections().size());
+        // All 131 photutils sources (testdata stars/dss_cutout_dao.csv, same settings): the share we also detect.
+        List<double[]> all = StarReference.rows("dss_cutout_dao.csv");
+        int hit = 0;
+        for (double[] r : all) {
+            double best = 99;
+            for (Detection d : m.detections()) {
+                best = Math.min(best, Math.hypot(d.x() - r[0], d.y() - r[1]));
+            }
+            if (best <= 1.0) {
+                hit++;
+            }
+        }
+        assertTrue(hit >= DSS_MATCHED * all.size(), hit + " of " + all.size() + " photutils sources matched");
     }
 }

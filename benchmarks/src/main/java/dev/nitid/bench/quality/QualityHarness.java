@@ -26,7 +26,8 @@ import java.util.Locale;
  * <pre>
  * java -cp benchmarks/target/benchmarks.jar dev.nitid.bench.quality.QualityHarness [OUT_DIR] [--no-python]
  * </pre>
- * Builds each scene, writes {@code OUT_DIR/SCENE/{observed,truth,psf}.npy}, runs
+ * Builds each scene, writes {@code OUT_DIR/SCENE/{observed,truth,psf}.npy} (and each restoration as
+ * {@code OUT_DIR/SCENE/METHOD.npy}), runs
  * {@code benchmarks/scripts/quality/skimage_rl.py OUT_DIR/SCENE} with {@link #python()} (scikit-image's RL, 30 iterations, clip off),
  * restores with every setting listed in {@link #methods()} (the {@code dev.nitid.restore} methods on main), and
  * prints one table per scene on stdout.
@@ -50,36 +51,69 @@ public final class QualityHarness {
         m.add(new Entry("plain RL, 30 it, no protection", plain.withProtection(StarProtection.none())));
         m.add(new Entry("plain RL, 30 it, sky floor", plain.withProtection(StarProtection.skyFloor())));
         m.add(new Entry("plain RL, 30 it, ring floor", plain.withProtection(StarProtection.ringFloor())));
-        m.add(new Entry("defaults (accelerated RL, auto stop, ring floor)", d));
-        m.add(new Entry("TV-RL, auto stop, ring floor", d.withMethod(Method.TV_RL)));
-        m.add(new Entry("damped RL, auto stop, ring floor", d.withMethod(Method.DAMPED_RL)));
+        m.add(new Entry("defaults (" + describe(d) + ")", d));
+        m.add(new Entry("accelerated RL, " + describe(d.withMethod(Method.ACCELERATED_RL)).replaceFirst("^[^,]*, ", ""),
+                d.withMethod(Method.ACCELERATED_RL)));
+        m.add(new Entry("TV-RL, " + describe(d).replaceFirst("^[^,]*, ", ""), d.withMethod(Method.TV_RL)));
+        m.add(new Entry("damped RL, " + describe(d).replaceFirst("^[^,]*, ", ""), d.withMethod(Method.DAMPED_RL)));
         m.add(new Entry("Wiener (K estimated)", d.withMethod(Method.WIENER)));
         m.add(new Entry("Tikhonov", d.withMethod(Method.TIKHONOV)));
         return m;
     }
 
     /**
-     * @param args output folder (default {@code target/quality}) and {@code --no-python} to skip scikit-image
+     * @param args {@code [OUT_DIR] [--no-python] [--scene seeing|diffraction] [--only TEXT]
+     *             [--score SCENE FILE.npy]}: {@code --only} keeps the methods whose name contains TEXT
+     *             (repeatable); {@code --score} prints the input's row and the given restoration's row only
      * @throws Exception on I/O failure
      */
     public static void main(String[] args) throws Exception {
         Path out = Path.of("benchmarks/target/quality");
         boolean python = true;
-        for (String a : args) {
-            if (a.equals("--no-python")) {
-                python = false;
-            } else {
-                out = Path.of(a);
+        String scene = null;
+        List<String> only = new ArrayList<>();
+        Path score = null;
+        for (int i = 0; i < args.length; i++) {
+            switch (args[i]) {
+                case "--no-python" -> python = false;
+                case "--scene" -> scene = args[++i];
+                case "--only" -> only.add(args[++i].toLowerCase(Locale.ROOT));
+                case "--score" -> {
+                    scene = args[++i];
+                    score = Path.of(args[++i]);
+                }
+                default -> out = Path.of(args[i]);
             }
         }
+        if (scene != null && !scene.equals("seeing") && !scene.equals("diffraction")) {
+            throw new IllegalArgumentException("--scene is '" + scene + "': use seeing or diffraction");
+        }
+        Options opt = new Options(out, python && score == null, only, score);
         PrintStream o = System.out;
-        run("seeing", "seeing-limited Moffat FWHM 4 px, beta 3", Scenes.seeing(), out, python, o);
-        run("diffraction", "diffraction-limited obstructed Airy (eps 0.33, 4 vanes), 2.4 px per lambda/D",
-                Scenes.diffraction(), out, python, o);
+        if (scene == null || scene.equals("seeing")) {
+            run("seeing", "seeing-limited Moffat FWHM 4 px, beta 3", Scenes.seeing(), opt, o);
+        }
+        if (scene == null || scene.equals("diffraction")) {
+            run("diffraction", "diffraction-limited obstructed Airy (eps 0.33, 4 vanes), 2.4 px per lambda/D",
+                    Scenes.diffraction(), opt, o);
+        }
     }
 
-    static void run(String name, String title, FieldSettings settings, Path out, boolean python, PrintStream o)
+    /** What to run: output folder, scikit-image or not, method filters, an outside restoration to score. */
+    record Options(Path out, boolean python, List<String> only, Path score) {
+        boolean wants(String method) {
+            if (score != null) {
+                return false;
+            }
+            String m = method.toLowerCase(Locale.ROOT);
+            return only.isEmpty() || only.stream().anyMatch(m::contains);
+        }
+    }
+
+    static void run(String name, String title, FieldSettings settings, Options opt, PrintStream o)
             throws IOException, InterruptedException {
+        Path out = opt.out();
+        boolean python = opt.python();
         long t0 = System.nanoTime();
         SyntheticField f = FieldGenerator.generate(settings);
         QualityReference ref = QualityReference.of(f, QualitySettings.defaults());
@@ -99,12 +133,19 @@ public final class QualityHarness {
         o.println("| method | iterations (stop) | FWHM ratio | ring depth (sigma) | error vs truth | flux ratio | noise ratio | time (s) |");
         o.println("|---|---|---:|---:|---:|---:|---:|---:|");
         row(o, "input (no restoration)", "-", ref.evaluate(f.observed()), 0);
+        if (opt.score() != null) {
+            row(o, opt.score().getFileName().toString(), "?", ref.evaluate(Npy.read(opt.score())), 0);
+        }
         for (Entry m : methods()) {
+            if (!opt.wants(m.name())) {
+                continue;
+            }
             long t = System.nanoTime();
             RestorationResult r = Restorers.create(m.settings()).restore(f.observed(), f.psf());
             double secs = (System.nanoTime() - t) / 1e9;
             String it = m.settings().method().iterative() ? r.iterations() + " (" + r.stopReason() + ")" : "-";
             row(o, m.name(), it, ref.evaluate(r.image()), secs);
+            Npy.write(dir.resolve(slug(m.name()) + ".npy"), r.image());
         }
         if (python) {
             Path script = Path.of("benchmarks/scripts/quality/skimage_rl.py");
@@ -121,6 +162,18 @@ public final class QualityHarness {
                 o.println("| scikit-image RL | (failed: " + log.replace('\n', ' ') + ") | | | | | | |");
             }
         }
+    }
+
+    /** @return "method, stopping rule, star guard" of a setting, so that the table labels follow the defaults */
+    static String describe(RestoreSettings s) {
+        return s.method().name().toLowerCase(Locale.ROOT).replace('_', '-') + ", "
+                + s.stopping().rule().name().toLowerCase(Locale.ROOT).replace('_', ' ') + ", guard "
+                + s.protection().guard().name().toLowerCase(Locale.ROOT).replace('_', ' ');
+    }
+
+    /** @return a file-name form of a method name: lower case, runs of other characters as one '-' */
+    static String slug(String name) {
+        return name.toLowerCase(Locale.ROOT).replaceAll("[^a-z0-9]+", "-").replaceAll("^-|-$", "");
     }
 
     /** The interpreter with Debian's scipy/scikit-image: {@code $NITID_PYTHON}, else /usr/bin/python3, else python3. */

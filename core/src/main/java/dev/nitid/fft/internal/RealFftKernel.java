@@ -31,6 +31,12 @@ public final class RealFftKernel {
     private final FloatFFT_1D rowFft;
     private final FloatFFT_1D colFft;
     private final float[] cols;
+    /**
+     * What an unscaled row inverse multiplies by: {@code width} for most plans, but JTransforms'
+     * power-of-two real inverse, unscaled, returns {@code width/2} times the input (its split-radix
+     * convention; checked here on a delta rather than assumed).
+     */
+    private final double rowInverseGain;
 
     /**
      * Plans the 1-D transforms.
@@ -45,6 +51,15 @@ public final class RealFftKernel {
         this.rowFft = width > 1 ? new FloatFFT_1D(width) : null;
         this.colFft = height > 1 ? new FloatFFT_1D(height) : null;
         this.cols = new float[BLOCK * 2 * height];
+        if (width > 1) {
+            float[] delta = new float[stride];
+            delta[0] = 1f;
+            rowFft.realForward(delta);
+            rowFft.realInverse(delta, false);
+            this.rowInverseGain = Math.abs(delta[0] - width) <= Math.abs(delta[0] - width / 2.0) ? width : width / 2.0;
+        } else {
+            this.rowInverseGain = 1;
+        }
     }
 
     /** @return floats per buffer row, {@code 2·(width/2 + 1)} */
@@ -89,6 +104,20 @@ public final class RealFftKernel {
      * @param y1  end row, exclusive
      */
     public void rowsInverse(float[] buf, int y0, int y1) {
+        rowsInverse(buf, y0, y1, true);
+    }
+
+    /**
+     * As {@link #rowsInverse(float[], int, int)}, optionally unnormalised (for callers that fold the
+     * normalisation into a transfer function with {@link #toColumnMajor}; the unnormalised gain is
+     * {@code width}, or {@code width/2} for JTransforms' power-of-two plans).
+     *
+     * @param buf   the buffer (input and output, modified)
+     * @param y0    first row
+     * @param y1    end row, exclusive
+     * @param scale true to normalise (divide by {@code width})
+     */
+    public void rowsInverse(float[] buf, int y0, int y1, boolean scale) {
         int n = width;
         if (n == 1) {
             return;
@@ -96,7 +125,7 @@ public final class RealFftKernel {
         for (int y = y0; y < y1; y++) {
             int off = y * stride;
             buf[off + 1] = buf[off + n];
-            rowFft.realInverse(buf, off, true);
+            rowFft.realInverse(buf, off, scale);
         }
     }
 
@@ -124,7 +153,8 @@ public final class RealFftKernel {
 
     /**
      * For columns {@code [c0, c1)}: forward transform, multiply by the transfer function (or its complex
-     * conjugate), inverse transform scaled by {@code 1/height}, all while the columns sit in cache.
+     * conjugate), inverse transform without the {@code 1/height} factor, all while the columns sit in
+     * cache. The caller folds the normalisation into {@code otf} (see {@link #toColumnMajor}).
      *
      * @param buf  the buffer, rows already forward-transformed (input and output, modified)
      * @param c0   first complex column
@@ -167,7 +197,7 @@ public final class RealFftKernel {
                     }
                     multiply(cols, off, otf, (c + b) * h2, h2, sign);
                     if (colFft != null) {
-                        colFft.complexInverse(cols, off, true);
+                        colFft.complexInverse(cols, off, false);
                     }
                 }
             }
@@ -196,7 +226,9 @@ public final class RealFftKernel {
 
     /**
      * Copies a half spectrum in the row layout into the column-by-column layout that
-     * {@link #columnsFilter} reads.
+     * {@link #columnsFilter} reads, multiplied by the inverse of the unscaled passes' gain (normally
+     * {@code 1/(width·height)}) so that {@link #columnsFilter} followed by {@code rowsInverse(.., false)}
+     * gives the normalised result; the factor is exact in float for power-of-two grids.
      *
      * @param spectrum half spectrum, {@code height × stride} (input, not modified)
      * @param otf      column-major copy, {@code (width/2 + 1) · 2·height} floats (output, modified)
@@ -204,10 +236,11 @@ public final class RealFftKernel {
     public void toColumnMajor(float[] spectrum, float[] otf) {
         int cw = stride / 2;
         int h2 = 2 * height;
+        float norm = (float) (1.0 / (rowInverseGain * height));
         for (int y = 0; y < height; y++) {
             for (int c = 0; c < cw; c++) {
-                otf[c * h2 + 2 * y] = spectrum[y * stride + 2 * c];
-                otf[c * h2 + 2 * y + 1] = spectrum[y * stride + 2 * c + 1];
+                otf[c * h2 + 2 * y] = spectrum[y * stride + 2 * c] * norm;
+                otf[c * h2 + 2 * y + 1] = spectrum[y * stride + 2 * c + 1] * norm;
             }
         }
     }

@@ -16,8 +16,9 @@ import org.jtransforms.fft.DoubleFFT_1D;
  * {@code s = q/(λf/D)} is the fine sample in units of λ/D. N is one fast FFT length for all wavelengths,
  * large enough that (a) the fine stamp fits with a guard band against the periodic wrap of the pattern
  * and (b) the pupil has at least the requested number of samples across at the longest wavelength.
- * When the fine sample is coarser than {@link #MAX_SAMPLE_OVER_LAMBDA_D} λ/D the pattern is computed
- * on an m-times finer grid (m odd) and every m-th sample is kept, so the point samples stay exact.
+ * When the fine sample is coarser than {@link #MAX_SAMPLE_OVER_LAMBDA_D} λ/D the pupil would fill more
+ * than half the grid (n_D = N·s), so the pattern is computed on an m-times finer grid (m odd, keeping a
+ * sample on the centre) and every m-th sample is kept: the point samples stay exact.
  *
  * <h2>Pupil edges</h2>
  * The transmission of each pupil sample is the fraction of the sample covered by the open aperture,
@@ -42,7 +43,7 @@ import org.jtransforms.fft.DoubleFFT_1D;
 public final class PupilEngine {
     /** Guard factor between the FFT field and the fine stamp, against the periodic wrap of the wings. */
     public static final double GUARD = 1.5;
-    /** Largest FFT side used (a 8192² complex double grid is 1 GiB). */
+    /** Largest FFT side used: bounds the time and the pupil rows held in memory. */
     public static final int MAX_FFT = 8192;
     /** Work is split into this many interleaved chunks (fixed, so results never depend on the thread count). */
     static final int CHUNKS = 16;

@@ -5,8 +5,9 @@ import java.util.Arrays;
 import java.util.List;
 
 /**
- * Builds the sky floor around bright stars used by {@link dev.nitid.restore.StarGuard#SKY_FLOOR}: a sparse
- * list of grid pixels and the lowest value the estimate may take there.
+ * Builds the floors around bright stars used by {@link dev.nitid.restore.StarGuard}: groups of grid pixels
+ * (single pixels or annuli) and the lowest mean each may take. A star is a local maximum that stands
+ * {@code detectSigma}·σ above the median of the annulus around it (so bumps of a nebula are not stars).
  */
 public final class StarFloor {
     /** Inner gap between the protected disc and the annulus where the local sky is measured, px (our choice). */
@@ -28,7 +29,7 @@ public final class StarFloor {
      * @param groupFloor the floor of each group
      * @param starGroups for ring groups: star s owns groups {@code starGroups[s] .. starGroups[s+1]−1}; null
      *                   for per-pixel groups
-     * @param coreIndices for ring groups: the core pixels of each star (round(r) ≤ 1), star after star
+     * @param coreIndices for ring groups: the core pixels of each star (r &lt; 1.5 from its centroid), star after star
      * @param coreStart  where each star's core starts in {@code coreIndices}; one extra entry at the end
      * @param stars      number of protected stars
      * @param radius     protected radius, px
@@ -206,6 +207,7 @@ public final class StarFloor {
         List<Integer> ringIdx = new ArrayList<>();
         List<Integer> ringStart = new ArrayList<>();
         List<Float> ringFloor = new ArrayList<>();
+        int accepted = 0;
         List<Integer> starGroups = new ArrayList<>();
         List<Integer> core = new ArrayList<>();
         List<Integer> coreStart = new ArrayList<>();
@@ -227,29 +229,41 @@ public final class StarFloor {
             }
             Arrays.sort(ann, 0, n);
             double local = (n & 1) == 1 ? ann[n / 2] : 0.5 * (ann[n / 2 - 1] + ann[n / 2]);
+            if (d[s[1] * width + s[0]] - local < detectSigma * sigma) {
+                continue; // a bump on a nebula or a noise peak, not a bright point source
+            }
+            accepted++;
             float fv = (float) (local - marginSigma * sigma);
             if (rings) {
+                // sub-pixel centre by three-point Gaussian interpolation of the peak above the local sky in x
+                // and in y (the log-parabola vertex; common practice, e.g. in particle-image velocimetry), so
+                // the annuli follow the star's true radius: a half-pixel offset mixes the core into the rings
+                double cx = s[0] + peakOffset(d, valid, width, height, s[0], s[1], 1, 0, local);
+                double cy = s[1] + peakOffset(d, valid, width, height, s[0], s[1], 0, 1, local);
                 starGroups.add(ringStart.size());
                 coreStart.add(core.size());
-                for (int dy = -1; dy <= 1; dy++) {
-                    for (int dx = -1; dx <= 1; dx++) {
+                // annulus b (b ≥ 2) holds the pixels with b − 0.5 ≤ r < b + 0.5 from the centre; r < 1.5 is the core
+                int[] bin = new int[(2 * ri + 5) * (2 * ri + 5)];
+                int side = 2 * ri + 5;
+                for (int dy = -ri - 2; dy <= ri + 2; dy++) {
+                    for (int dx = -ri - 2; dx <= ri + 2; dx++) {
                         int xx = s[0] + dx;
                         int yy = s[1] + dy;
-                        if (Math.round(Math.hypot(dx, dy)) <= 1 && xx >= 0 && yy >= 0 && xx < width && yy < height) {
+                        double rr = Math.hypot(xx - cx, yy - cy);
+                        int bb = (int) Math.floor(rr + 0.5);
+                        boolean inside = xx >= 0 && yy >= 0 && xx < width && yy < height;
+                        bin[(dy + ri + 2) * side + dx + ri + 2] = inside ? bb : -1;
+                        if (inside && rr < 1.5) {
                             core.add((yy + padY) * gridWidth + xx + padX);
                         }
                     }
                 }
-                // annulus b holds the pixels with round(r) = b, for b = 2..ri (b ≤ 1 is the star's core)
                 for (int b = 2; b <= ri; b++) {
                     int before = ringIdx.size();
-                    for (int dy = -b - 1; dy <= b + 1; dy++) {
-                        for (int dx = -b - 1; dx <= b + 1; dx++) {
-                            int xx = s[0] + dx;
-                            int yy = s[1] + dy;
-                            if ((int) Math.round(Math.hypot(dx, dy)) == b && xx >= 0 && yy >= 0 && xx < width
-                                    && yy < height) {
-                                ringIdx.add((yy + padY) * gridWidth + xx + padX);
+                    for (int dy = -ri - 2; dy <= ri + 2; dy++) {
+                        for (int dx = -ri - 2; dx <= ri + 2; dx++) {
+                            if (bin[(dy + ri + 2) * side + dx + ri + 2] == b) {
+                                ringIdx.add((s[1] + dy + padY) * gridWidth + s[0] + dx + padX);
                             }
                         }
                     }
@@ -310,7 +324,34 @@ public final class StarFloor {
         for (int g = 0; g <= count; g++) {
             start[g] = g;
         }
-        return new Floor(idx, start, val, null, new int[0], new int[] {0}, stars.size(), radius);
+        return new Floor(idx, start, val, null, new int[0], new int[] {0}, accepted, radius);
+    }
+
+    /** Vertex of the parabola through the logs of the three samples along (ax, ay), clamped to ±0.5 px. */
+    private static double peakOffset(float[] d, boolean[] valid, int width, int height, int x, int y, int ax, int ay,
+                                     double local) {
+        int xl = x - ax;
+        int yl = y - ay;
+        int xr = x + ax;
+        int yr = y + ay;
+        if (xl < 0 || yl < 0 || xr >= width || yr >= height || !ok(d, valid, yl * width + xl)
+                || !ok(d, valid, yr * width + xr)) {
+            return 0;
+        }
+        double l = d[yl * width + xl] - local;
+        double c = d[y * width + x] - local;
+        double r = d[yr * width + xr] - local;
+        if (!(l > 0 && c > 0 && r > 0)) {
+            return 0;
+        }
+        double ll = Math.log(l);
+        double lc = Math.log(c);
+        double lr = Math.log(r);
+        double den = 2 * (ll - 2 * lc + lr);
+        if (!(den < 0)) {
+            return 0;
+        }
+        return Math.max(-0.5, Math.min(0.5, (ll - lr) / den));
     }
 
     private static boolean ok(float[] d, boolean[] valid, int i) {

@@ -1,0 +1,291 @@
+package dev.nitid.quality;
+
+import dev.nitid.image.Image;
+import dev.nitid.quality.internal.GaussianSmoothing;
+import dev.nitid.quality.internal.Robust;
+import dev.nitid.stars.BackgroundMap;
+import dev.nitid.stars.BackgroundSettings;
+import dev.nitid.stars.Detection;
+import dev.nitid.stars.MeasureSettings;
+import dev.nitid.stars.MeasuredStar;
+import dev.nitid.stars.StarMeasurement;
+import dev.nitid.stars.StarMeasurer;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.List;
+
+/**
+ * The quality metrics on real data, where there is no truth: FWHM ratio, ring depth, flux ratio and noise
+ * ratio of a restoration against its input, from the stars measured in the input (what {@code nitid
+ * sharpen}'s summary prints). Built once per input; immutable and thread-safe.
+ *
+ * <h2>Differences from {@link QualityReference}</h2>
+ * <ul>
+ *   <li>Stars: the accepted stars of a {@link StarMeasurement} (unblended, star-like, no pixel of the fit
+ *       stamp at or above the saturation level when it is known) whose
+ *       peak is at least {@code minPeakSigma} local background σ, isolated among <i>all</i> detections with the
+ *       detection significance standing in for the flux, brightest (largest Gaussian flux) first.</li>
+ *   <li>Sky noise: 1.4826·MAD of the image minus the input's mesh background map (so that a smooth nebula or
+ *       gradient does not count as noise), over pixels farther than {@code max(8, 3·FWHM)} pixels from every
+ *       detection whose background-subtracted input lies within ±5 σ of zero and, smoothed by a Gaussian of
+ *       FWHM 4 px, stays within ±0.5 σ (faint wings, filaments and background-map misfits are not sky). The
+ *       output uses the same pixels and the same background map. Whole-number data (16-bit images) are
+ *       dithered before the MAD, as in {@link QualityMetrics#skyNoise}.</li>
+ *   <li>No error-vs-truth: the report's truth figures are NaN.</li>
+ * </ul>
+ */
+public final class ObservedQuality {
+    /** Seed of the dither applied to whole-number data before the MAD (reproducible). */
+    static final long DITHER_SEED = 0x5EEDL;
+    /** Pixels of the background-subtracted input beyond this many σ are not sky (undetected structure). */
+    static final double SKY_CLIP_SIGMA = 5.0;
+    /** FWHM in pixels of the smoothing that reveals faint structure for the sky mask. */
+    static final double STRUCTURE_FWHM = 4.0;
+    /** Smoothed background-subtracted input above this many (unsmoothed) σ is structure, not sky. */
+    static final double STRUCTURE_SIGMA = 0.5;
+    /** Sky pixels keep at least this many pixels, and 3 FWHM, from every detection. */
+    static final double MIN_CLEAR_RADIUS = 8.0;
+
+    private final Image input;
+    private final QualitySettings settings;
+    private final float[] background;
+    private final boolean[] skyMask;
+    private final List<StarSite> fwhmStars;
+    private final List<StarSite> ringStars;
+    private final double inputSigma;
+    private final double inputFwhm;
+    private final double apertureRadius;
+
+    private ObservedQuality(Image input, QualitySettings settings, float[] background, boolean[] skyMask,
+                            List<StarSite> fwhmStars, List<StarSite> ringStars) {
+        this.input = input;
+        this.settings = settings;
+        this.background = background;
+        this.skyMask = skyMask;
+        this.fwhmStars = List.copyOf(fwhmStars);
+        this.ringStars = List.copyOf(ringStars);
+        this.inputSigma = skyNoise(input);
+        this.inputFwhm = QualityMetrics.medianFwhm(input, this.fwhmStars, settings.fitStamp());
+        this.apertureRadius = Math.max(settings.apertureFwhm() * inputFwhm, settings.apertureMin());
+    }
+
+    /**
+     * Measures the input's stars with the stars package's defaults, then builds the reference.
+     *
+     * @param input      the observed image, plane 0 (input, not modified)
+     * @param saturation level at or above which a pixel is saturated (header SATURATE, the data type's
+     *                   ceiling), or NaN if unknown
+     * @param settings   the metric constants
+     * @param threads    worker threads for the measurement, ≥ 1 (the result does not depend on it)
+     * @return the reference
+     * @throws IllegalArgumentException if no usable star or too little sky is found
+     */
+    public static ObservedQuality measure(Image input, double saturation, QualitySettings settings, int threads) {
+        StarMeasurement m = StarMeasurer.measure(input.planeImage(0),
+                MeasureSettings.defaults().withThreads(threads).withSaturation(saturation));
+        return of(input, m, saturation, settings, threads);
+    }
+
+    /**
+     * Builds the reference from a star measurement of the input (for example the one that gave the PSF).
+     *
+     * @param input       the observed image, plane 0 (input, not modified)
+     * @param measurement stars measured on that plane
+     * @param saturation  level at or above which a pixel is saturated, or NaN if unknown; stars with a
+     *                    pixel at or above it within the fit stamp are left out
+     * @param settings    the metric constants
+     * @param threads     worker threads for the background map, ≥ 1
+     * @return the reference
+     * @throws IllegalArgumentException if no usable star or too little sky is found
+     */
+    public static ObservedQuality of(Image input, StarMeasurement measurement, double saturation,
+                                     QualitySettings settings, int threads) {
+        int w = input.width();
+        int h = input.height();
+        if (measurement.width() != w || measurement.height() != h) {
+            throw new IllegalArgumentException("the star measurement is for a " + measurement.width() + "x"
+                    + measurement.height() + " image but the input is " + w + "x" + h + ": measure this image");
+        }
+        float[] px = input.plane(0);
+        BackgroundMap map = BackgroundMap.estimate(px, w, h, BackgroundSettings.defaults(), threads);
+        float[] bg = new float[px.length];
+        map.subtract(null, bg, threads);
+
+        List<Detection> det = measurement.detections();
+        List<MeasuredStar> chosen = new ArrayList<>();
+        for (MeasuredStar s : measurement.stars()) {
+            if (s.snr() >= settings.minPeakSigma() && isolated(s, det, settings)
+                    && !saturated(input, s.x(), s.y(), settings.fitStamp() / 2, saturation)) {
+                chosen.add(s);
+            }
+        }
+        chosen.sort(Comparator.comparingDouble((MeasuredStar s) -> s.gaussian().flux()).reversed());
+        int half = settings.fitStamp() / 2 + 1;
+        List<StarSite> fwhmStars = new ArrayList<>();
+        List<StarSite> ringStars = new ArrayList<>();
+        for (MeasuredStar s : chosen) {
+            if (inside(s.x(), s.y(), half, w, h)) {
+                fwhmStars.add(new StarSite(s.x(), s.y()));
+                if (ringStars.size() < settings.ringStars() && inside(s.x(), s.y(), settings.backgroundOuter() + 1, w, h)) {
+                    ringStars.add(new StarSite(s.x(), s.y()));
+                }
+            }
+        }
+        if (fwhmStars.isEmpty()) {
+            throw new IllegalArgumentException("no isolated star peaks above " + settings.minPeakSigma()
+                    + " sky σ in the input: the star figures cannot be measured on this image");
+        }
+        double fwhm = measurement.gaussian().fwhm();
+        double clear = Math.max(MIN_CLEAR_RADIUS, 3 * (Double.isFinite(fwhm) ? fwhm : 3));
+        boolean[] sky = new boolean[px.length];
+        java.util.Arrays.fill(sky, true);
+        int r = (int) Math.ceil(clear);
+        for (Detection d : det) {
+            int cx = (int) Math.round(d.x());
+            int cy = (int) Math.round(d.y());
+            for (int y = Math.max(0, cy - r); y <= Math.min(h - 1, cy + r); y++) {
+                for (int x = Math.max(0, cx - r); x <= Math.min(w - 1, cx + r); x++) {
+                    if (Math.hypot(x - d.x(), y - d.y()) <= clear) {
+                        sky[y * w + x] = false;
+                    }
+                }
+            }
+        }
+        double sigma = measurement.backgroundNoise();
+        float[] resid = new float[px.length];
+        for (int i = 0; i < px.length; i++) {
+            resid[i] = Float.isFinite(px[i]) ? px[i] - bg[i] : 0f;
+        }
+        // Star wings, filaments and faint galaxies hide below the per-pixel noise but not below the noise of
+        // a smoothed image: smoothing by a Gaussian of FWHM 4 px cuts white noise about 6-fold (common
+        // practice, no source), so a 0.5 σ cut on the smoothed residual sits ~3 of its own σ above zero.
+        float[] smooth = GaussianSmoothing.smooth(resid, w, h, STRUCTURE_FWHM);
+        int n = 0;
+        for (int i = 0; i < px.length; i++) {
+            if (sky[i] && (!(Math.abs(resid[i]) <= SKY_CLIP_SIGMA * sigma) || Math.abs(smooth[i]) > STRUCTURE_SIGMA * sigma)) {
+                sky[i] = false;
+            }
+            n += sky[i] ? 1 : 0;
+        }
+        if (n < 1000) {
+            throw new IllegalArgumentException("only " + n + " star-free sky pixels in the input: the noise "
+                    + "figures need at least 1000");
+        }
+        return new ObservedQuality(input, settings, bg, sky, fwhmStars, ringStars);
+    }
+
+    private static boolean saturated(Image img, double x, double y, int half, double level) {
+        if (Double.isNaN(level)) {
+            return false;
+        }
+        int cx = (int) Math.round(x);
+        int cy = (int) Math.round(y);
+        for (int j = Math.max(0, cy - half); j <= Math.min(img.height() - 1, cy + half); j++) {
+            for (int i = Math.max(0, cx - half); i <= Math.min(img.width() - 1, cx + half); i++) {
+                if (img.get(i, j) >= level) {
+                    return true;
+                }
+            }
+        }
+        return false;
+    }
+
+    private static boolean inside(double x, double y, double border, int w, int h) {
+        return x >= border && y >= border && x <= w - 1 - border && y <= h - 1 - border;
+    }
+
+    private static boolean isolated(MeasuredStar s, List<Detection> det, QualitySettings q) {
+        Detection self = null;
+        double best = Double.POSITIVE_INFINITY;
+        for (Detection d : det) {
+            double dist = Math.hypot(d.x() - s.x(), d.y() - s.y());
+            if (dist < best) {
+                best = dist;
+                self = d;
+            }
+        }
+        if (self == null) {
+            return true;
+        }
+        for (Detection d : det) {
+            if (d == self) {
+                continue;
+            }
+            double dist = Math.hypot(d.x() - s.x(), d.y() - s.y());
+            if (dist < q.isolationRadius() && d.significance() > q.isolationFraction() * self.significance()) {
+                return false;
+            }
+            if (dist < q.brighterRadius() && d.significance() > self.significance()) {
+                return false;
+            }
+        }
+        return true;
+    }
+
+    private double skyNoise(Image img) {
+        float[] px = img.plane(0);
+        double[] v = new double[px.length];
+        boolean integral = true;
+        int n = 0;
+        for (int i = 0; i < px.length; i++) {
+            if (skyMask[i] && Float.isFinite(px[i])) {
+                integral &= px[i] == Math.rint(px[i]);
+                v[n++] = px[i];
+            }
+        }
+        // Quantised data: dither the raw whole numbers (see Robust.madSigmaDequantised), then subtract the
+        // background; the dither's 1/12 variance is removed in quadrature.
+        if (integral && n > 0) {
+            java.util.SplittableRandom rnd = new java.util.SplittableRandom(DITHER_SEED);
+            for (int i = 0; i < n; i++) {
+                v[i] += rnd.nextDouble() - 0.5;
+            }
+        }
+        for (int i = 0, k = 0; i < px.length; i++) {
+            if (skyMask[i] && Float.isFinite(px[i])) {
+                v[k++] -= background[i];
+            }
+        }
+        double s = Robust.madSigma(v, n);
+        return integral ? Math.sqrt(Math.max(0, s * s - 1.0 / 12)) : s;
+    }
+
+    /**
+     * Scores one restoration of the input; the truth figures of the report are NaN.
+     *
+     * @param output the restored image, same size (input, not modified)
+     * @return the report
+     */
+    public QualityReport evaluate(Image output) {
+        if (output.width() != input.width() || output.height() != input.height()) {
+            throw new IllegalArgumentException("output is " + output.width() + "x" + output.height()
+                    + " but the input is " + input.width() + "x" + input.height() + ": score a same-size restoration");
+        }
+        QualityMetrics.FwhmComparison fwhm = QualityMetrics.fwhmRatio(input, output, fwhmStars, settings.fitStamp());
+        QualityMetrics.RingDepth ring = QualityMetrics.ringDepth(output, ringStars, inputSigma, settings);
+        QualityMetrics.FluxComparison flux = QualityMetrics.fluxRatio(input, output, fwhmStars, apertureRadius, settings);
+        double noiseOut = skyNoise(output);
+        QualityMetrics.TruthError none = new QualityMetrics.TruthError(Double.NaN, Double.NaN, Double.NaN, 0);
+        return new QualityReport(fwhm, ring, none, none, Double.NaN, flux, inputSigma, noiseOut, noiseOut / inputSigma);
+    }
+
+    /** @return the input's sky σ (background-subtracted, see the class comment) */
+    public double inputSigma() {
+        return inputSigma;
+    }
+
+    /** @return the median input FWHM of the selected stars, pixels */
+    public double inputFwhm() {
+        return inputFwhm;
+    }
+
+    /** @return the stars of the FWHM and flux metrics */
+    public List<StarSite> fwhmStars() {
+        return fwhmStars;
+    }
+
+    /** @return the stars of the ring metric */
+    public List<StarSite> ringStars() {
+        return ringStars;
+    }
+}
