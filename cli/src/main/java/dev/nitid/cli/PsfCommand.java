@@ -135,14 +135,7 @@ public final class PsfCommand implements Callable<Integer> {
     }
 
     private int side() {
-        if (size == null) {
-            return psf.autoSize();
-        }
-        if (size < 1 || size % 2 == 0) {
-            throw new IllegalArgumentException("--size is " + size
-                    + ", but the PSF side must be odd so its centre is a pixel (try " + Math.max(1, size | 1) + ")");
-        }
-        return size;
+        return psf.side(size, "--size");
     }
 
     /** Renders inside a pool of {@code threads} workers (the pupil FFT spreads over the pool it runs in). */

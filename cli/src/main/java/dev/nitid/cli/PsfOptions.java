@@ -193,6 +193,26 @@ public final class PsfOptions {
     }
 
     /**
+     * The PSF side a command uses: the one its own option asked for, checked to be odd, or
+     * {@link #autoSize()}.
+     *
+     * @param requested  the value of the command's size option, or null when not given
+     * @param optionName that option's name, for the error message
+     * @return an odd side in pixels
+     * @throws IllegalArgumentException if the requested side is not a positive odd number
+     */
+    public int side(Integer requested, String optionName) {
+        if (requested == null) {
+            return autoSize();
+        }
+        if (requested < 1 || requested % 2 == 0) {
+            throw new IllegalArgumentException(optionName + " is " + requested
+                    + ", but the PSF side must be odd so its centre is a pixel (try " + Math.max(1, requested | 1) + ")");
+        }
+        return requested;
+    }
+
+    /**
      * A stamp side that holds the model's wings: ±3 FWHM for a Gaussian, ±8 FWHM for a Moffat, ±12 λ/D for a
      * pupil model at the longest wavelength, widened by the seeing (4 FWHM) and the jitter (3σ), odd, at
      * most {@value #MAX_AUTO_SIZE} (project choice). The stamp side itself is not an option here, because

@@ -121,6 +121,11 @@ public final class SharpenCommand implements Callable<Integer> {
     @Mixin
     PsfOptions model;
 
+    @Option(names = "--psf-size", paramLabel = "PX",
+            description = "With the model options: side of the PSF stamp in pixels, odd (default: wide enough for "
+                    + "the model's wings).")
+    Integer psfSize;
+
     @Option(names = {"-o", "--output"}, paramLabel = "OUT.fits",
             description = "Where to write the result (float32). Default: IN-sharp.fits next to the input.")
     Path output;
@@ -234,7 +239,8 @@ public final class SharpenCommand implements Callable<Integer> {
         }
         if (model.given()) {
             PsfModel m = model.toModel();
-            return new PsfChoice(m.render(model.size(), model.oversample(), 0, 0), "model " + m.description(), null);
+            return new PsfChoice(m.render(model.side(psfSize, "--psf-size"), model.oversample(), 0, 0),
+                    "model " + m.description(), null);
         }
         StarMeasurement m = StarMeasurer.measure(in, measureSettings(settings(in)));
         if (!m.enoughStars() || m.psf() == null) {

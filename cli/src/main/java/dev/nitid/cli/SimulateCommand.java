@@ -75,6 +75,10 @@ public final class SimulateCommand implements Callable<Integer> {
     @Option(names = "--seed", paramLabel = "N", description = "Random seed (default: ${DEFAULT-VALUE}).")
     long seed = 1;
 
+    @Option(names = "--psf-size", paramLabel = "PX",
+            description = "Side of the PSF stamp in pixels, odd (default: wide enough for the model's wings).")
+    Integer psfSize;
+
     @Option(names = "--image-size", paramLabel = "W[xH]", description = "Field size in pixels, e.g. 1024 or 1200x800 (default: ${DEFAULT-VALUE}).")
     String size = "1024";
 
@@ -260,7 +264,7 @@ public final class SimulateCommand implements Callable<Integer> {
             return ModelPsf.moffat(DEFAULT_FWHM, PsfOptions.DEFAULT_BETA).withGradient(gradient[0], gradient[1]);
         }
         PsfModel model = psfOptions.toModel();
-        int side = psfOptions.size();
+        int side = psfOptions.side(psfSize, "--psf-size");
         int os = psfOptions.oversample();
         boolean analytic = model instanceof MoffatPsf || model instanceof GaussianPsf;
         if (varies) {

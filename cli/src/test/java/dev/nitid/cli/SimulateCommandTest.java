@@ -97,7 +97,7 @@ class SimulateCommandTest {
         // size: 206.264806 × 3.76 / 1000 = 0.775556 arcsec/px (reference README §4, astropy 5.2.1).
         Path out = dir.resolve("airy.fits");
         Run r = run(base(out, "--model", "airy", "--aperture", "200", "--focal-length", "1000", "--pixel-size",
-                "3.76", "--obstruction", "0.3", "--vanes", "4", "--vane-width", "2", "--size", "31"));
+                "3.76", "--obstruction", "0.3", "--vanes", "4", "--vane-width", "2", "--psf-size", "31"));
         assertEquals(ExitCode.OK, r.code(), r.err());
         FitsImage f = FitsReader.read(out);
         assertEquals("airy", f.header().getString("PSFMODEL").orElseThrow());
