@@ -77,4 +77,48 @@ class HostileCorpusCliTest {
         }
         assertEquals(e.sha256(), sha256(f), "input changed");
     }
+
+    /**
+     * The same files as the input (and as the PSF) of {@code nitid sharpen}, which writes an output: the
+     * manifest's exit code, one stderr line naming the hostile file, no output and no temporary file left,
+     * inputs unchanged.
+     */
+    @ParameterizedTest(name = "{0}")
+    @MethodSource("entries")
+    void sharpenRefusesCleanlyAndWritesNothing(Entry e) throws Exception {
+        org.junit.jupiter.api.Assumptions.assumeTrue(e.exit() != 0, "readable file: sharpening it is not an error");
+        Path f = dir.resolve(e.file());
+        try (InputStream in = HostileCorpusCliTest.class.getResourceAsStream(ROOT + e.file())) {
+            Files.write(f, in.readAllBytes());
+        }
+        dev.nitid.image.Image psf = dev.nitid.image.Image.create(5, 5);
+        for (int y = 0; y < 5; y++) {
+            for (int x = 0; x < 5; x++) {
+                psf.set(x, y, (float) Math.exp(-((x - 2) * (x - 2) + (y - 2) * (y - 2)) / 2.0));
+            }
+        }
+        Path psfFile = dir.resolve("psf.fits");
+        dev.nitid.fits.FitsWriter.write(psfFile, psf, dev.nitid.fits.FitsHeader.empty(),
+                dev.nitid.fits.WriteOptions.defaults());
+        Path good = dir.resolve("good.fits");
+        dev.nitid.image.Image img = dev.nitid.image.Image.create(16, 16);
+        img.fill(10f);
+        dev.nitid.fits.FitsWriter.write(good, img, dev.nitid.fits.FitsHeader.empty(),
+                dev.nitid.fits.WriteOptions.defaults());
+        Path out = dir.resolve("out.fits");
+        List<String[]> runs = List.of(
+                new String[] {"sharpen", f.toString(), "--psf", psfFile.toString(), "-o", out.toString()},
+                new String[] {"sharpen", good.toString(), "--psf", f.toString(), "-o", out.toString()});
+        for (String[] args : runs) {
+            CliRun r = CliRun.of(args);
+            assertEquals(e.exit(), r.exit(), r.err());
+            assertEquals(1, r.errLines().size(), "stderr must be one line:\n" + r.err());
+            assertTrue(r.errLines().get(0).startsWith("nitid: " + f + ": "), r.errLines().get(0));
+            try (Stream<Path> s = Files.list(dir)) {
+                assertEquals(List.of(f, good, psfFile).stream().sorted().toList(), s.sorted().toList(),
+                        "an output or temporary file was left");
+            }
+            assertEquals(e.sha256(), sha256(f), "input changed");
+        }
+    }
 }

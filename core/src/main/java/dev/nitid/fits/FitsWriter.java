@@ -112,13 +112,13 @@ public final class FitsWriter {
                 h.addValue("BSCALE", 1, null);
             }
             boolean longStrings = false;
-            // nom-tam-fits keeps one card per keyword (COMMENT, HISTORY and blank excepted) and finds the
-            // one to replace by a linear search; removing duplicates here (the last one wins, as there)
-            // keeps building the header linear in the number of cards.
-            java.util.Map<String, Integer> last = new java.util.HashMap<>();
+            // A keyword appears once (COMMENT, HISTORY and blank excepted). nom-tam-fits would keep the last
+            // duplicate, found by a linear search per card; keeping the first here, as FitsHeader.getString
+            // reads it, is consistent and keeps building the header linear in the number of cards.
+            java.util.Map<String, Integer> first = new java.util.HashMap<>();
             List<Card> all = header.cards();
             for (int i = 0; i < all.size(); i++) {
-                last.put(all.get(i).key().toUpperCase(Locale.ROOT), i);
+                first.putIfAbsent(all.get(i).key().toUpperCase(Locale.ROOT), i);
             }
             for (int i = 0; i < all.size(); i++) {
                 Card c = all.get(i);
@@ -126,7 +126,7 @@ public final class FitsWriter {
                 if (DROPPED.contains(key) || key.matches("NAXIS\\d+")) {
                     continue;
                 }
-                if (!REPEATABLE.contains(key) && last.get(key) != i) {
+                if (!REPEATABLE.contains(key) && first.get(key) != i) {
                     continue;
                 }
                 HeaderCard card;

@@ -319,6 +319,20 @@ class FitsWriterTest {
         ExternalTools.assertFitsverifyClean(out);
     }
 
+    /** A keyword may appear once (FITS Standard 4.0 §4.4.2): the writer keeps the first, as getString reads it. */
+    @Test
+    void repeatedKeywordIsWrittenOnce() throws Exception {
+        FitsHeader h = FitsHeader.of(List.of(new Card("OBJECT", "'first'", null), new Card("HISTORY", null, "a"),
+                new Card("OBJECT", "'second'", null), new Card("HISTORY", null, "b")));
+        Path out = tmp.resolve("dup.fits");
+        FitsWriter.write(out, Image.create(3, 3), h, WriteOptions.defaults());
+        FitsHeader back = FitsReader.read(out).header();
+        assertEquals(1, back.cards().stream().filter(c -> c.key().equals("OBJECT")).count());
+        assertEquals("first", back.getString("OBJECT").orElseThrow());
+        assertEquals(2, back.cards().stream().filter(c -> c.key().equals("HISTORY")).count());
+        ExternalTools.assertFitsverifyClean(out);
+    }
+
     @Test
     void writtenFilesOfEveryTypePassFitsverify() throws Exception {
         ExternalTools.assumeFitsverify();
