@@ -642,29 +642,54 @@ public final class StarMeasurer {
         double[] el = ps.stream().mapToDouble(StarProfile::ellipticity).toArray();
         double[] an = ps.stream().mapToDouble(StarProfile::angle).toArray();
         double[] be = ps.stream().mapToDouble(StarProfile::beta).toArray();
+        double[] w = weights(ps);
         boolean moffat = shape == ProfileShape.MOFFAT;
-        return new ProfileSummary(shape, ps.size(), Select.median(fw), Select.madSigma(fw), Select.median(ma),
-                Select.median(mi), Select.median(el), Select.madSigma(el), axialMedian(an),
-                moffat ? Select.median(be) : Double.NaN, moffat ? Select.madSigma(be) : Double.NaN, bic);
+        return new ProfileSummary(shape, ps.size(), Select.weightedMedian(fw, w), Select.madSigma(fw),
+                Select.weightedMedian(ma, w), Select.weightedMedian(mi, w), Select.weightedMedian(el, w),
+                Select.madSigma(el), axialMedian(an, w), moffat ? Select.weightedMedian(be, w) : Double.NaN,
+                moffat ? Select.madSigma(be) : Double.NaN, bic);
     }
 
-    /** Median of axial angles (period π) around their doubled-angle mean direction, in [0, π). */
-    static double axialMedian(double[] angles) {
+    /**
+     * Each star's weight in the summaries: 1/σ² of its FWHM from the fit, so that faint stars, whose widths
+     * scatter and are biased by noise, count for little (stars without a finite error get the smallest weight
+     * of the others).
+     */
+    static double[] weights(List<StarProfile> ps) {
+        double[] w = new double[ps.size()];
+        double min = Double.POSITIVE_INFINITY;
+        for (int i = 0; i < w.length; i++) {
+            double e = ps.get(i).errors().fwhm();
+            w[i] = e > 0 && Double.isFinite(e) ? 1 / (e * e) : Double.NaN;
+            if (w[i] == w[i]) {
+                min = Math.min(min, w[i]);
+            }
+        }
+        for (int i = 0; i < w.length; i++) {
+            if (w[i] != w[i]) {
+                w[i] = Double.isFinite(min) ? min : 1;
+            }
+        }
+        return w;
+    }
+
+    /** Weighted median of axial angles (period π) around their weighted doubled-angle mean direction, in [0, π). */
+    static double axialMedian(double[] angles, double[] w) {
         if (angles.length == 0) {
             return Double.NaN;
         }
         double sx = 0;
         double sy = 0;
-        for (double a : angles) {
-            sx += Math.cos(2 * a);
-            sy += Math.sin(2 * a);
+        for (int i = 0; i < angles.length; i++) {
+            sx += w[i] * Math.cos(2 * angles[i]);
+            sy += w[i] * Math.sin(2 * angles[i]);
         }
         double mean = 0.5 * Math.atan2(sy, sx);
         double[] d = new double[angles.length];
         for (int i = 0; i < d.length; i++) {
             d[i] = mean + Math.IEEEremainder(angles[i] - mean, Math.PI);
         }
-        double m = Select.median(d) % Math.PI;
+        double m = Select.weightedMedian(d, w) % Math.PI;
         return m < 0 ? m + Math.PI : m;
     }
 
@@ -684,12 +709,13 @@ public final class StarMeasurer {
                 int x1 = (int) ((long) (col + 1) * w / gc);
                 int y0 = (int) ((long) row * h / gr);
                 int y1 = (int) ((long) (row + 1) * h / gr);
+                double[] wt = weights(ps);
                 out.add(new RegionSummary(col, row, x0, y0, x1, y1, ps.size(),
-                        Select.median(ps.stream().mapToDouble(StarProfile::fwhm).toArray()),
-                        Select.median(ps.stream().mapToDouble(StarProfile::fwhmMajor).toArray()),
-                        Select.median(ps.stream().mapToDouble(StarProfile::fwhmMinor).toArray()),
-                        Select.median(ps.stream().mapToDouble(StarProfile::ellipticity).toArray()),
-                        axialMedian(ps.stream().mapToDouble(StarProfile::angle).toArray())));
+                        Select.weightedMedian(ps.stream().mapToDouble(StarProfile::fwhm).toArray(), wt),
+                        Select.weightedMedian(ps.stream().mapToDouble(StarProfile::fwhmMajor).toArray(), wt),
+                        Select.weightedMedian(ps.stream().mapToDouble(StarProfile::fwhmMinor).toArray(), wt),
+                        Select.weightedMedian(ps.stream().mapToDouble(StarProfile::ellipticity).toArray(), wt),
+                        axialMedian(ps.stream().mapToDouble(StarProfile::angle).toArray(), wt)));
             }
         }
         return out;
