@@ -15,7 +15,8 @@ import java.util.List;
  *
  * <p>Layout (documented in the README): a title strip of {@value #TITLE_HEIGHT} px; two panels of at most
  * {@value #PANEL_MAX} px on the long side (block-averaged when the image is larger); below them one row
- * of crop pairs, each crop {@value #CROP} image pixels magnified {@value #ZOOM}×. Image row 0 (FITS row 1)
+ * of at most {@value #MAX_CROPS} crop pairs (input left, restored right), each crop {@value #CROP} image
+ * pixels magnified {@value #ZOOM}×; the picture is as wide as the wider of the two rows. Image row 0 (FITS row 1)
  * is drawn at the bottom, as FITS viewers do.
  */
 final class ComparisonPreview {
@@ -24,6 +25,7 @@ final class ComparisonPreview {
     static final int CROP = 33;
     static final int ZOOM = 4;
     static final int GAP = 8;
+    static final int MAX_CROPS = 4;
 
     private ComparisonPreview() {
     }
@@ -45,7 +47,7 @@ final class ComparisonPreview {
         int pw = (before.width() + block - 1) / block;
         int ph = (before.height() + block - 1) / block;
         int cropSide = CROP * ZOOM;
-        int nCrops = Math.min(crops.size(), Math.max(1, (2 * pw + GAP) / (2 * cropSide + 3 * GAP)));
+        int nCrops = Math.min(crops.size(), MAX_CROPS);
         int width = Math.max(2 * pw + 3 * GAP, nCrops * (2 * cropSide + 3 * GAP) + GAP);
         int height = TITLE_HEIGHT + ph + 2 * GAP + (nCrops > 0 ? cropSide + TITLE_HEIGHT + GAP : 0);
         BufferedImage out = new BufferedImage(width, height, BufferedImage.TYPE_INT_RGB);

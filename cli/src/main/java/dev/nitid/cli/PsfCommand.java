@@ -53,6 +53,10 @@ public final class PsfCommand implements Callable<Integer> {
     @Mixin
     PsfOptions psf;
 
+    @Option(names = "--size", paramLabel = "PX",
+            description = "PSF image side in pixels, odd (default: chosen from the model to hold its wings).")
+    Integer size;
+
     @Option(names = {"-o", "--output"}, paramLabel = "PSF.fits", required = true,
             description = "FITS file to write (float32).")
     Path output;
@@ -68,24 +72,26 @@ public final class PsfCommand implements Callable<Integer> {
     public Integer call() {
         return Failures.run(spec, common, () -> {
             PsfModel model = psf.toModel();
-            int size = psf.size();
+            int side = side();
             int os = psf.oversample();
             if (preview != null && !overwrite && Files.exists(preview)) {
                 throw new FitsException(FitsException.Kind.OUTPUT_EXISTS, preview, -1, null,
                         "the preview file exists (add --overwrite to replace it, or choose another name)");
             }
             long t0 = System.nanoTime();
-            Image image = render(model, size, os, common.threads());
+            Image image = render(model, side, os, common.threads());
             PsfFigures figures = PsfFigures.of(image, model);
             double seconds = (System.nanoTime() - t0) / 1e9;
-            FitsHeader header = header(model, figures, size, os)
+            FitsHeader header = header(model, figures, side, os)
                     .withHistory("command: nitid " + String.join(" ", spec.commandLine().getParseResult().originalArgs()));
             FitsWriter.write(output, image, header, WriteOptions.defaults().withOverwrite(overwrite));
             if (preview != null) {
                 writePreview(model, image, figures);
             }
             PrintWriter err = spec.commandLine().getErr();
-            for (String w : figures.warnings()) {
+            java.util.List<String> warnings = new java.util.ArrayList<>(figures.warnings());
+            subPixelNote(model, os).ifPresent(warnings::add);
+            for (String w : warnings) {
                 if (!common.quiet()) {
                     err.println("nitid: warning: " + w);
                 }
@@ -94,7 +100,7 @@ public final class PsfCommand implements Callable<Integer> {
             if (!common.quiet()) {
                 PrintWriter out = spec.commandLine().getOut();
                 out.printf(Locale.ROOT, "wrote %s: %s PSF, %d x %d px, oversample %d, %.2f s%n", output,
-                        model.family(), size, size, os, seconds);
+                        model.family(), side, side, os, seconds);
                 out.println("  " + PsfPreview.summaryLine(figures));
                 if (preview != null) {
                     out.println("wrote " + preview);
@@ -103,6 +109,33 @@ public final class PsfCommand implements Callable<Integer> {
             }
             return ExitCode.OK;
         });
+    }
+
+    /** Sub-pixels coarser than this (in λ/D) make the midpoint-rule pixel integration visibly inexact. */
+    static final double FINE_SUBPIXEL_LD = 0.1;
+
+    /**
+     * For diffraction models, warns when the sub-pixels are coarse in λ/D: the midpoint rule then reads the
+     * central pixel high by about h²π²/24 of itself (h = sub-pixel in λ/D; error term of the midpoint rule,
+     * Davis &amp; Rabinowitz, with ∇²I/I ≈ −π² at the Airy core).
+     */
+    static java.util.Optional<String> subPixelNote(PsfModel model, int os) {
+        if (model.pixelOverNyquist().isEmpty()) {
+            return java.util.Optional.empty();
+        }
+        double pixelLd = model.pixelOverNyquist().getAsDouble() / 2;
+        double h = pixelLd / os;
+        if (h <= FINE_SUBPIXEL_LD) {
+            return java.util.Optional.empty();
+        }
+        int better = (int) Math.ceil(pixelLd / FINE_SUBPIXEL_LD);
+        return java.util.Optional.of(String.format(Locale.ROOT, "sub-pixels are %.2f lambda/D wide, so the central pixel"
+                + " may read about %.1f%% high (use --oversample %d or more for 0.1 lambda/D)",
+                h, 100 * h * h * Math.PI * Math.PI / 24, better));
+    }
+
+    private int side() {
+        return psf.side(size, "--size");
     }
 
     /** Renders inside a pool of {@code threads} workers (the pupil FFT spreads over the pool it runs in). */

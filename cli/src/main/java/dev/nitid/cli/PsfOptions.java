@@ -105,10 +105,6 @@ public final class PsfOptions {
     @Option(names = "--jitter", paramLabel = "PX", description = "Tracking jitter, Gaussian sigma in pixels.")
     Double jitter;
 
-    @Option(names = "--size", paramLabel = "PX",
-            description = "PSF image side in pixels, odd (default: chosen from the model to hold its wings).")
-    Integer size;
-
     @Option(names = "--oversample", paramLabel = "N",
             description = "Sub-pixels per pixel per axis for pixel integration; 1 = point sampling (default 5).")
     Integer oversample;
@@ -197,21 +193,36 @@ public final class PsfOptions {
     }
 
     /**
-     * The stamp side: {@code --size}, or one chosen to hold the model's wings: ±3 FWHM for a Gaussian,
-     * ±8 FWHM for a Moffat, ±12 λ/D for a pupil model at the longest wavelength, widened by the seeing and
-     * jitter, odd, at most {@value #MAX_AUTO_SIZE} (project choice).
+     * The PSF side a command uses: the one its own option asked for, checked to be odd, or
+     * {@link #autoSize()}.
+     *
+     * @param requested  the value of the command's size option, or null when not given
+     * @param optionName that option's name, for the error message
+     * @return an odd side in pixels
+     * @throws IllegalArgumentException if the requested side is not a positive odd number
+     */
+    public int side(Integer requested, String optionName) {
+        if (requested == null) {
+            return autoSize();
+        }
+        if (requested < 1 || requested % 2 == 0) {
+            throw new IllegalArgumentException(optionName + " is " + requested
+                    + ", but the PSF side must be odd so its centre is a pixel (try " + Math.max(1, requested | 1) + ")");
+        }
+        return requested;
+    }
+
+    /**
+     * A stamp side that holds the model's wings: ±3 FWHM for a Gaussian, ±8 FWHM for a Moffat, ±12 λ/D for a
+     * pupil model at the longest wavelength, widened by the seeing (4 FWHM) and the jitter (3σ), odd, at
+     * most {@value #MAX_AUTO_SIZE} (project choice). The stamp side itself is not an option here, because
+     * commands name it differently ({@code nitid psf --size}, {@code nitid simulate --psf-size}).
      *
      * @return an odd side in pixels
+     * @throws IllegalArgumentException if the model options are incomplete (see {@link #toModel()})
      */
-    public int size() {
-        if (size != null) {
-            if (size < 1 || size % 2 == 0) {
-                throw new IllegalArgumentException("--size is " + size
-                        + ", but the PSF side must be odd so its centre is a pixel (try " + Math.max(1, size | 1) + ")");
-            }
-            return size;
-        }
-        toModel(); // validates the options the automatic size depends on
+    public int autoSize() {
+        toModel(); // validates the options the size depends on
         double half = switch (model) {
             case gaussian -> 3 * fwhm;
             case moffat -> 8 * fwhm;

@@ -7,6 +7,11 @@ import dev.nitid.fits.FitsWriter;
 import dev.nitid.fits.WriteOptions;
 import dev.nitid.fits.WriteReport;
 import dev.nitid.image.Image;
+import dev.nitid.psf.GaussianPsf;
+import dev.nitid.psf.MoffatPsf;
+import dev.nitid.psf.PsfModel;
+import dev.nitid.psf.PsfParameter;
+import dev.nitid.psf.Psfs;
 import dev.nitid.synth.DetectorSettings;
 import dev.nitid.synth.ExtendedSettings;
 import dev.nitid.synth.FieldGenerator;
@@ -16,6 +21,7 @@ import dev.nitid.synth.FluxLaw;
 import dev.nitid.synth.ImagePsf;
 import dev.nitid.synth.ModelPsf;
 import dev.nitid.synth.Placement;
+import dev.nitid.synth.RenderedModelPsf;
 import dev.nitid.synth.StarSettings;
 import dev.nitid.synth.SyntheticField;
 import dev.nitid.synth.TruthCatalogue;
@@ -44,14 +50,19 @@ import picocli.CommandLine.Spec;
             + "Poisson and read noise averaged over a stack of frames), the truth image (unblurred star fluxes "
             + "plus extended structure), the star list as CSV (x, y, flux, peak, saturated; x and y 0-based, "
             + "pixel centres at whole numbers) and the PSF. The same options and --seed give the same files."},
-        footer = {"%nExample:%n  nitid simulate -o field.fits --size 512 --stars 300 --nebula 200 --filaments 10 \\",
-            "      --fwhm 4 --sky 200 --gain 1.5 --read-noise 6 --frames 4 --seed 7"})
+        footer = {"%nThe PSF options are those of 'nitid psf' (default: --model moffat --fwhm 3 --beta 4.765).",
+            "%nExample:%n  nitid simulate -o field.fits --image-size 512 --stars 300 --nebula 200 --filaments 10 \\",
+            "      --model moffat --fwhm 4 --beta 3 --sky 200 --gain 1.5 --read-noise 6 --frames 4 --seed 7"})
 public final class SimulateCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
 
     @Mixin
     CommonOptions common;
+
+    /** The PSF model options of {@code nitid psf} (--model, --fwhm, --beta, --aperture, --size, ...). */
+    @Mixin
+    PsfOptions psfOptions;
 
     @Option(names = {"-o", "--output"}, required = true, paramLabel = "FILE",
             description = "The observed image to write (FITS). The truth, star list and PSF go next to it, named "
@@ -64,7 +75,11 @@ public final class SimulateCommand implements Callable<Integer> {
     @Option(names = "--seed", paramLabel = "N", description = "Random seed (default: ${DEFAULT-VALUE}).")
     long seed = 1;
 
-    @Option(names = "--size", paramLabel = "W[xH]", description = "Field size in pixels, e.g. 1024 or 1200x800 (default: ${DEFAULT-VALUE}).")
+    @Option(names = "--psf-size", paramLabel = "PX",
+            description = "Side of the PSF stamp in pixels, odd (default: wide enough for the model's wings).")
+    Integer psfSize;
+
+    @Option(names = "--image-size", paramLabel = "W[xH]", description = "Field size in pixels, e.g. 1024 or 1200x800 (default: ${DEFAULT-VALUE}).")
     String size = "1024";
 
     @Option(names = "--bitpix", paramLabel = "16|-32",
@@ -74,7 +89,8 @@ public final class SimulateCommand implements Callable<Integer> {
 
     @Option(names = "--pixel-scale", paramLabel = "ARCSEC",
             description = "Pixel scale to record in the headers as a linear WCS (CDELT1/2 in degrees), so that "
-                    + "other tools can report sizes in arcseconds (default: none recorded).")
+                    + "other tools can report sizes in arcseconds (default: from --focal-length and --pixel-size "
+                    + "when both are given, else none).")
     double pixelScale = Double.NaN;
 
     @Option(names = "--stars", paramLabel = "N", description = "Number of stars (default: ${DEFAULT-VALUE}).")
@@ -118,25 +134,14 @@ public final class SimulateCommand implements Callable<Integer> {
     @Option(names = "--galaxy-peak", paramLabel = "ADU", description = "Central brightness of the brightest galaxy (default: ${DEFAULT-VALUE}).")
     double galaxyPeak = 200;
 
-    @Option(names = "--profile", paramLabel = "moffat|gaussian", description = "PSF model (default: ${DEFAULT-VALUE}).")
-    String profile = "moffat";
-
-    @Option(names = "--fwhm", paramLabel = "PX", description = "PSF FWHM at the field centre (default: ${DEFAULT-VALUE}).")
-    double fwhm = 3;
-
-    @Option(names = "--beta", paramLabel = "B", description = "Moffat power index (default: ${DEFAULT-VALUE}).")
-    double beta = 3;
-
-    @Option(names = "--psf-size", paramLabel = "PX", description = "Side of the PSF stamp, odd (default: about 8 FWHM for Moffat, 4 for Gaussian).")
-    int psfSize = 0;
-
     @Option(names = "--fwhm-gradient", paramLabel = "GX,GY", split = ",", arity = "1",
             description = "Linear change of the FWHM across the field, as a fraction over the full width and height, "
-                    + "e.g. 0.2,0 makes stars 20%% wider at the right edge than at the left (default: none).")
+                    + "e.g. 0.2,0 makes stars 20%% wider at the right edge than at the left (round --model gaussian "
+                    + "or moffat only; default: none).")
     double[] gradient = {0, 0};
 
     @Option(names = "--psf-file", paramLabel = "FILE",
-            description = "Use this PSF image (FITS, square, odd side) instead of a model; stars then sit on pixel centres.")
+            description = "Use this PSF image (FITS, square, odd side) instead of --model; stars then sit on pixel centres.")
     Path psfFile;
 
     @Option(names = "--sky", paramLabel = "ADU", description = "Sky level per frame (default: ${DEFAULT-VALUE}).")
@@ -168,6 +173,9 @@ public final class SimulateCommand implements Callable<Integer> {
         }
         if (!Double.isNaN(pixelScale) && !(pixelScale > 0 && Double.isFinite(pixelScale))) {
             throw new IllegalArgumentException("--pixel-scale is " + pixelScale + ", but it must be a positive number of arcseconds");
+        }
+        if (Double.isNaN(pixelScale) && psfOptions.focalLength != null && psfOptions.pixelSize != null) {
+            pixelScale = Psfs.plateScaleArcsec(psfOptions.pixelSize, psfOptions.focalLength);
         }
         int[] wh = parseSize(size);
         FieldPsf psf = psf();
@@ -235,21 +243,66 @@ public final class SimulateCommand implements Callable<Integer> {
         };
     }
 
+    /** FWHM of the PSF when no --model is given, pixels (a typical well-sampled seeing disc). */
+    static final double DEFAULT_FWHM = 3.0;
+
+    /**
+     * The field's PSF: a PSF file; a round Gaussian/Moffat with a FWHM gradient; an analytic model drawn at
+     * each star's sub-pixel phase; or, for pupil models and models with seeing or jitter (expensive to
+     * render), the model rendered once with stars on pixel centres.
+     */
     private FieldPsf psf() throws FitsException {
+        boolean varies = gradient[0] != 0 || gradient[1] != 0;
         if (psfFile != null) {
+            if (psfOptions.given() || varies) {
+                throw new IllegalArgumentException("--psf-file gives the PSF itself: leave out --model and --fwhm-gradient");
+            }
             Image k = FitsReader.read(psfFile).image();
             return ImagePsf.of(k, psfFile.getFileName().toString());
         }
-        ModelPsf m = switch (profile.toLowerCase(Locale.ROOT)) {
-            case "moffat" -> ModelPsf.moffat(fwhm, beta);
-            case "gaussian" -> ModelPsf.gaussian(fwhm);
-            default -> throw new IllegalArgumentException("--profile is '" + profile
-                    + "', but it must be 'moffat' or 'gaussian'");
-        };
-        if (psfSize != 0) {
-            m = m.withSize(psfSize);
+        if (!psfOptions.given()) {
+            return ModelPsf.moffat(DEFAULT_FWHM, PsfOptions.DEFAULT_BETA).withGradient(gradient[0], gradient[1]);
         }
-        return m.withGradient(gradient[0], gradient[1]);
+        PsfModel model = psfOptions.toModel();
+        int side = psfOptions.side(psfSize, "--psf-size");
+        int os = psfOptions.oversample();
+        boolean analytic = model instanceof MoffatPsf || model instanceof GaussianPsf;
+        if (varies) {
+            boolean round = model instanceof MoffatPsf m ? m.fwhmMajor() == m.fwhmMinor()
+                    : model instanceof GaussianPsf g && g.fwhmMajor() == g.fwhmMinor();
+            if (!analytic || !round) {
+                throw new IllegalArgumentException("--fwhm-gradient works with a round --model gaussian or moffat "
+                        + "without --seeing or --jitter (leave it out, or drop --ellipticity)");
+            }
+            return model instanceof MoffatPsf m
+                    ? new ModelPsf(ModelPsf.Shape.MOFFAT, m.fwhmMajor(), m.beta(), side, os, gradient[0], gradient[1])
+                    : new ModelPsf(ModelPsf.Shape.GAUSSIAN, ((GaussianPsf) model).fwhmMajor(), 2.5, side, os,
+                            gradient[0], gradient[1]);
+        }
+        if (analytic) {
+            return new RenderedModelPsf(model, side, os);
+        }
+        return ImagePsf.of(model.render(side, os, 0, 0), PsfCommand.title(model));
+    }
+
+    /** The model's own header cards, as {@code nitid psf} writes them. */
+    private FitsHeader modelCards(FitsHeader h) {
+        if (psfFile != null || !psfOptions.given()) {
+            return h;
+        }
+        for (PsfParameter p : psfOptions.toModel().parameters()) {
+            Object v = p.value();
+            if (v instanceof Double d) {
+                h = h.with(p.key(), d, p.comment());
+            } else if (v instanceof Long l) {
+                h = h.with(p.key(), l, p.comment());
+            } else if (v instanceof Boolean b) {
+                h = h.with(p.key(), b, p.comment());
+            } else {
+                h = h.with(p.key(), String.valueOf(v), p.comment());
+            }
+        }
+        return h.with("OVERSAMP", (long) psfOptions.oversample(), "sub-pixels per pixel per axis (1 = point sampled)");
     }
 
     static int[] parseSize(String s) {
@@ -265,12 +318,12 @@ public final class SimulateCommand implements Callable<Integer> {
         } catch (NumberFormatException e) {
             // fall through to the message below
         }
-        throw new IllegalArgumentException("--size is '" + s + "', but it must be W or WxH in pixels (for example 1024 or 1200x800)");
+        throw new IllegalArgumentException("--image-size is '" + s + "', but it must be W or WxH in pixels (for example 1024 or 1200x800)");
     }
 
     private static int[] checkSize(int w, int h, String s) {
         if (w < 1 || h < 1) {
-            throw new IllegalArgumentException("--size is '" + s + "', but both sides must be at least 1 pixel");
+            throw new IllegalArgumentException("--image-size is '" + s + "', but both sides must be at least 1 pixel");
         }
         return new int[] {w, h};
     }
@@ -302,6 +355,7 @@ public final class SimulateCommand implements Callable<Integer> {
                 .with("RDNOISE", d.readNoise(), "[e-] read noise per frame")
                 .with("NCOMBINE", (long) d.frames(), "frames averaged into the stack")
                 .with("SKYSIGMA", d.skySigma(), "[adu] expected sky noise of the stack");
+        h = modelCards(h);
         if (s.psf() instanceof ModelPsf m) {
             h = h.with("PSFFWHM", m.fwhm(), "[px] PSF FWHM at the field centre")
                     .with("PSFGRADX", m.gradientX(), "FWHM change across the width")

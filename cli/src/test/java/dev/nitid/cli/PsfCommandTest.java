@@ -121,4 +121,63 @@ class PsfCommandTest {
         assertEquals(0, over.code(), over.err());
         assertTrue(Files.size(f) > 0);
     }
+
+    @Test
+    void optionRulesAndAutomaticSize() throws Exception {
+        Path f = dir.resolve("s.fits");
+        // automatic side: ±3 FWHM for a Gaussian (notes/psf.md), so FWHM 3 → 2·9 + 1 = 19
+        Run g = run("psf", "--model", "gaussian", "--fwhm", "3", "-o", f.toString());
+        assertEquals(0, g.code(), g.err());
+        assertEquals(19, FitsReader.read(f).image().width());
+        Run noll = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
+                "--zernike", "12=0.1", "-o", dir.resolve("n.fits").toString());
+        assertEquals(ExitCode.USAGE, noll.code());
+        assertTrue(noll.err().contains("Noll"), noll.err());
+        Run vanes = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
+                "--vanes", "3", "-o", dir.resolve("v.fits").toString());
+        assertEquals(ExitCode.USAGE, vanes.code());
+        assertTrue(vanes.err().contains("--vane-width"), vanes.err());
+        Run both = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
+                "--wavelength", "600", "--band", "500-600", "-o", dir.resolve("b.fits").toString());
+        assertEquals(ExitCode.USAGE, both.code());
+        Run band = run("psf", "--model", "airy", "--aperture", "100", "--focal-length", "500", "--pixel-size", "3",
+                "--band", "400-700", "--size", "15", "-o", dir.resolve("band.fits").toString());
+        assertEquals(0, band.code(), band.err());
+        FitsImage fi = FitsReader.read(dir.resolve("band.fits"));
+        assertEquals(400, fi.header().getDouble("BANDLO").orElseThrow(), 1e-9);
+        assertEquals(700, fi.header().getDouble("BANDHI").orElseThrow(), 1e-9);
+        assertEquals(15, fi.header().getDouble("NWAVE").orElseThrow(), 0, "one wavelength per 20 nm");
+    }
+
+    /**
+     * The written file passes fitsverify 4.20 (HEASARC's FITS checker) and astropy 5.2.1 reads the same
+     * pixels and cards; skipped where those Debian packages are not installed.
+     */
+    @Test
+    void outsideToolsAcceptTheFile() throws Exception {
+        Path f = dir.resolve("ext.fits");
+        Run r = run("psf", "--model", "moffat", "--fwhm", "2.5", "--beta", "3", "--size", "25", "-o", f.toString());
+        assertEquals(0, r.code(), r.err());
+        Path fv = Path.of("/usr/bin/fitsverify");
+        org.junit.jupiter.api.Assumptions.assumeTrue(Files.isExecutable(fv), "fitsverify not installed");
+        Process p = new ProcessBuilder(fv.toString(), "-q", "-e", f.toString()).redirectErrorStream(true).start();
+        String text = new String(p.getInputStream().readAllBytes(), java.nio.charset.StandardCharsets.UTF_8);
+        assertEquals(0, p.waitFor(), text);
+        assertTrue(text.contains("OK"), text);
+        Path py = Path.of("/usr/bin/python3");
+        org.junit.jupiter.api.Assumptions.assumeTrue(Files.isExecutable(py), "python3 not installed");
+        Process q = new ProcessBuilder(py.toString(), "-c", "import sys\n"
+                + "try:\n from astropy.io import fits\nexcept ImportError:\n print('NOASTROPY'); sys.exit(0)\n"
+                + "h = fits.open(sys.argv[1])[0]\n"
+                + "print(repr(float(h.data.astype('float64').sum())), h.data.shape[0], h.header['PSFMODEL'], "
+                + "repr(float(h.header['PSFBETA'])))", f.toString()).redirectErrorStream(true).start();
+        String out = new String(q.getInputStream().readAllBytes(), java.nio.charset.StandardCharsets.UTF_8).trim();
+        assertEquals(0, q.waitFor(), out);
+        org.junit.jupiter.api.Assumptions.assumeFalse(out.contains("NOASTROPY"), "astropy not installed");
+        String[] parts = out.split("\\s+");
+        assertEquals(1.0, Double.parseDouble(parts[0]), 1e-6, "astropy sum: " + out);
+        assertEquals("25", parts[1]);
+        assertEquals("moffat", parts[2]);
+        assertEquals(3.0, Double.parseDouble(parts[3]), 0);
+    }
 }

@@ -33,9 +33,17 @@ class SimulateCommandTest {
         return new Run(code, out.toString(), err.toString());
     }
 
+    /** A small field without PSF options. */
+    private String[] base(Path out, String... extra) {
+        List<String> a = new java.util.ArrayList<>(List.of("simulate", "-o", out.toString(), "--image-size", "96x80",
+                "--stars", "12", "--nebula", "40", "--filaments", "2", "--seed", "5"));
+        a.addAll(List.of(extra));
+        return a.toArray(String[]::new);
+    }
+
+    /** A small field with a Moffat PSF of FWHM 2.5 px. */
     private String[] small(Path out, String... extra) {
-        List<String> a = new java.util.ArrayList<>(List.of("simulate", "-o", out.toString(), "--size", "96x80",
-                "--stars", "12", "--nebula", "40", "--filaments", "2", "--fwhm", "2.5", "--seed", "5"));
+        List<String> a = new java.util.ArrayList<>(List.of(base(out, "--model", "moffat", "--fwhm", "2.5")));
         a.addAll(List.of(extra));
         return a.toArray(String[]::new);
     }
@@ -52,7 +60,8 @@ class SimulateCommandTest {
         assertEquals(5.0, obs.header().getDouble("SIMSEED").orElseThrow());
         assertEquals(12.0, obs.header().getDouble("NSTARS").orElseThrow());
         assertEquals("observed", obs.header().getString("IMAGETYP").orElseThrow());
-        assertEquals(2.5, obs.header().getDouble("PSFFWHM").orElseThrow());
+        assertEquals(2.5, obs.header().getDouble("PSFFWHMA").orElseThrow(), "the psf command's keywords");
+        assertEquals("moffat", obs.header().getString("PSFMODEL").orElseThrow());
         FitsImage truth = FitsReader.read(dir.resolve("field-truth.fits"));
         assertEquals("truth", truth.header().getString("IMAGETYP").orElseThrow());
         FitsImage psf = FitsReader.read(dir.resolve("field-psf.fits"));
@@ -83,6 +92,20 @@ class SimulateCommandTest {
     }
 
     @Test
+    void pupilModelFromThePsfOptionsWithPlateScale() throws Exception {
+        // The psf command's airy options drive the field; the plate scale follows from focal length and pixel
+        // size: 206.264806 × 3.76 / 1000 = 0.775556 arcsec/px (reference README §4, astropy 5.2.1).
+        Path out = dir.resolve("airy.fits");
+        Run r = run(base(out, "--model", "airy", "--aperture", "200", "--focal-length", "1000", "--pixel-size",
+                "3.76", "--obstruction", "0.3", "--vanes", "4", "--vane-width", "2", "--psf-size", "31"));
+        assertEquals(ExitCode.OK, r.code(), r.err());
+        FitsImage f = FitsReader.read(out);
+        assertEquals("airy", f.header().getString("PSFMODEL").orElseThrow());
+        assertEquals(0.775556, dev.nitid.fits.Wcs.pixelScaleArcsec(f.header()).orElseThrow(), 1e-6);
+        assertEquals(31, FitsReader.read(dir.resolve("airy-psf.fits")).image().width());
+    }
+
+    @Test
     void sameSeedGivesTheSameFile() throws Exception {
         Path a = dir.resolve("a.fits");
         Path b = dir.resolve("b.fits");
@@ -93,14 +116,23 @@ class SimulateCommandTest {
     }
 
     @Test
-    void sixteenBitOutputIsUnsignedThroughBzero() throws Exception {
-        Path out = dir.resolve("u16.fits");
-        assertEquals(ExitCode.OK, run(small(out, "--bitpix", "16")).code());
-        FitsImage f = FitsReader.read(out);
-        assertEquals(16, f.bitpix());
-        float v = f.image().get(3, 3);
-        assertEquals(Math.rint(v), v, 0.0, "integer ADU");
-        assertTrue(v > 32768 || v >= 0, "unsigned values read back as non-negative");
+    void sixteenBitOutputIsTheRoundedFloatField() throws Exception {
+        // Same seed, two data types: the unsigned 16-bit file (BZERO 32768, the FITS Standard 4.0 convention for
+        // unsigned integers — section from memory) holds the float field rounded to whole ADU (all within
+        // 0..65535 here), whatever the rounding rule for ties: |u16 − f32| ≤ ½.
+        Path f32 = dir.resolve("f32.fits");
+        Path u16 = dir.resolve("u16.fits");
+        assertEquals(ExitCode.OK, run(small(f32)).code());
+        assertEquals(ExitCode.OK, run(small(u16, "--bitpix", "16")).code());
+        FitsImage a = FitsReader.read(f32);
+        FitsImage b = FitsReader.read(u16);
+        assertEquals(16, b.bitpix());
+        float[] pa = a.image().plane(0);
+        float[] pb = b.image().plane(0);
+        for (int i = 0; i < pa.length; i++) {
+            assertEquals(pa[i], pb[i], 0.5 + 1e-3, "pixel " + i);
+            assertEquals(Math.rint(pb[i]), pb[i], 0.0, "whole ADU at pixel " + i);
+        }
     }
 
     @Test
@@ -116,16 +148,18 @@ class SimulateCommandTest {
     @Test
     void optionErrorsAreOneLineWithExitCode2() {
         Path out = dir.resolve("g.fits");
-        for (String[] bad : new String[][] {{"--bitpix", "8"}, {"--gain", "0"}, {"--profile", "airy"},
-                {"--flux-law", "linear"}, {"--fwhm-gradient", "0.1"}}) {
+        for (String[] bad : new String[][] {{"--bitpix", "8"}, {"--gain", "0"}, {"--oversample", "99"},
+                {"--flux-law", "linear"}, {"--fwhm-gradient", "0.1"}, {"--ellipticity", "0.3", "--fwhm-gradient", "0.1,0"},
+                {"--psf-file", "x.fits"}}) {
             Run r = run(small(out, bad));
             assertEquals(ExitCode.USAGE, r.code(), String.join(" ", bad) + ": " + r.err());
             assertEquals(1, r.err().strip().lines().count(), r.err());
             assertTrue(r.err().startsWith("nitid: "), r.err());
         }
-        Run size = run("simulate", "-o", out.toString(), "--size", "12xx");
+        Run size = run("simulate", "-o", out.toString(), "--image-size", "12xx");
         assertEquals(ExitCode.USAGE, size.code(), size.err());
-        assertTrue(size.err().contains("--size is '12xx'"), size.err());
+        assertTrue(size.err().contains("--image-size is '12xx'"), size.err());
+        assertEquals(ExitCode.USAGE, run(base(out, "--model", "cubic")).code(), "unknown model");
         assertEquals(ExitCode.USAGE, run("simulate").code(), "missing -o");
     }
 
@@ -133,9 +167,9 @@ class SimulateCommandTest {
     void psfFileIsUsedAsGivenWithStarsOnPixelCentres() throws Exception {
         // Round trip: the PSF written by one run drives a second run; its PSF output is the same kernel.
         Path first = dir.resolve("one.fits");
-        assertEquals(ExitCode.OK, run(small(first, "--profile", "gaussian")).code());
+        assertEquals(ExitCode.OK, run(base(first, "--model", "gaussian", "--fwhm", "2")).code());
         Path second = dir.resolve("two.fits");
-        Run r = run(small(second, "--psf-file", dir.resolve("one-psf.fits").toString()));
+        Run r = run(base(second, "--psf-file", dir.resolve("one-psf.fits").toString()));
         assertEquals(ExitCode.OK, r.code(), r.err());
         float[] a = FitsReader.read(dir.resolve("one-psf.fits")).image().plane(0);
         float[] b = FitsReader.read(dir.resolve("two-psf.fits")).image().plane(0);
@@ -148,7 +182,7 @@ class SimulateCommandTest {
 
     @Test
     void missingPsfFileExits66() {
-        Run r = run(small(dir.resolve("h.fits"), "--psf-file", dir.resolve("nope.fits").toString()));
+        Run r = run(base(dir.resolve("h.fits"), "--psf-file", dir.resolve("nope.fits").toString()));
         assertEquals(ExitCode.NO_INPUT, r.code(), r.err());
     }
 

@@ -210,18 +210,17 @@ public final class FitsReader {
     }
 
     private static Quantizer quantizer(Path file, HduInfo hdu) throws FitsException {
-        var h = hdu.header();
         double scale = number(file, hdu, "BSCALE", 1.0);
         double zero = number(file, hdu, "BZERO", 0.0);
         Long blank = null;
-        if (hdu.bitpix() > 0 && h.containsKey("BLANK")) {
+        if (hdu.bitpix() > 0 && hdu.card("BLANK") != null) {
             blank = (long) number(file, hdu, "BLANK", 0.0);
         }
         return new Quantizer(scale, zero, blank);
     }
 
     private static double number(Path file, HduInfo hdu, String key, double dflt) throws FitsException {
-        var card = hdu.header().findCard(key);
+        var card = hdu.card(key);
         if (card == null || card.getValue() == null || card.getValue().isBlank()) {
             return dflt;
         }

@@ -16,6 +16,7 @@ import java.time.ZoneOffset;
 import java.time.ZonedDateTime;
 import java.time.format.DateTimeFormatter;
 import java.time.temporal.ChronoUnit;
+import java.util.List;
 import java.util.Locale;
 import java.util.Set;
 import nom.tam.fits.Header;
@@ -48,6 +49,9 @@ public final class FitsWriter {
     public static final Set<String> DROPPED = Set.of("SIMPLE", "XTENSION", "BITPIX", "NAXIS", "EXTEND", "PCOUNT",
             "GCOUNT", "GROUPS", "BZERO", "BSCALE", "BLANK", "DATAMIN", "DATAMAX", "CHECKSUM", "DATASUM", "DATE",
             "END", "INHERIT", "ZIMAGE");
+
+    /** Keywords that may repeat (FITS Standard 4.0 §4.4.2.4, commentary keywords). */
+    private static final Set<String> REPEATABLE = Set.of("COMMENT", "HISTORY", "");
 
     private static final int CHUNK_PIXELS = 1 << 14;
     private static final DateTimeFormatter DATE = DateTimeFormatter.ofPattern("yyyy-MM-dd'T'HH:mm:ss", Locale.ROOT);
@@ -108,9 +112,21 @@ public final class FitsWriter {
                 h.addValue("BSCALE", 1, null);
             }
             boolean longStrings = false;
-            for (Card c : header.cards()) {
+            // nom-tam-fits keeps one card per keyword (COMMENT, HISTORY and blank excepted) and finds the
+            // one to replace by a linear search; removing duplicates here (the last one wins, as there)
+            // keeps building the header linear in the number of cards.
+            java.util.Map<String, Integer> last = new java.util.HashMap<>();
+            List<Card> all = header.cards();
+            for (int i = 0; i < all.size(); i++) {
+                last.put(all.get(i).key().toUpperCase(Locale.ROOT), i);
+            }
+            for (int i = 0; i < all.size(); i++) {
+                Card c = all.get(i);
                 String key = c.key().toUpperCase(Locale.ROOT);
                 if (DROPPED.contains(key) || key.matches("NAXIS\\d+")) {
+                    continue;
+                }
+                if (!REPEATABLE.contains(key) && last.get(key) != i) {
                     continue;
                 }
                 HeaderCard card;

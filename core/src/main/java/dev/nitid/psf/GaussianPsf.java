@@ -101,6 +101,11 @@ public record GaussianPsf(double fwhmMajor, double fwhmMinor, double angleDeg) i
     }
 
     @Override
+    public java.util.function.DoubleBinaryOperator evaluator() {
+        return shape()::value;
+    }
+
+    @Override
     public Image renderOversampled(int size, int oversample, double dx, double dy) {
         return shape().renderOversampled(size, oversample, dx, dy);
     }

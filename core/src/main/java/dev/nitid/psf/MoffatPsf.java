@@ -120,6 +120,11 @@ public record MoffatPsf(double fwhmMajor, double fwhmMinor, double beta, double 
     }
 
     @Override
+    public java.util.function.DoubleBinaryOperator evaluator() {
+        return shape()::value;
+    }
+
+    @Override
     public Image renderOversampled(int size, int oversample, double dx, double dy) {
         return shape().renderOversampled(size, oversample, dx, dy);
     }

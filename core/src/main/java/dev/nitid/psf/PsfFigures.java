@@ -121,7 +121,7 @@ public record PsfFigures(double fwhmPx, double fwhmMajorPx, double fwhmMinorPx, 
         boolean under = nyq.isPresent() && nyq.getAsDouble() > 1;
         if (under) {
             warnings.add(String.format(Locale.ROOT,
-                    "the pixel is %.2f times the Nyquist pixel λ/2D: the detector under-samples the optics",
+                    "the pixel is %.2f times the Nyquist pixel lambda/(2D): the detector under-samples the optics",
                     nyq.getAsDouble()));
         }
         return new PsfFigures(Math.sqrt(fwhm[0] * fwhm[1]), fwhm[0], fwhm[1], fwhm[2], a[peakIndex], cx, cy,

@@ -58,8 +58,7 @@ public final class PsfPreview {
             g.setColor(BACKGROUND);
             g.fillRect(0, 0, width, height);
             g.setColor(INK);
-            g.setFont(new Font(Font.SANS_SERIF, Font.BOLD, 14));
-            g.drawString(title, GAP, 18);
+            drawFitted(g, title, width - 2 * GAP, GAP, 18);
             g.setFont(new Font(Font.SANS_SERIF, Font.PLAIN, 12));
             g.drawString(summary(figures), GAP, 36);
             drawPsf(g, psf, GAP, TITLE + 10);
@@ -80,6 +79,23 @@ public final class PsfPreview {
      */
     public static String summaryLine(PsfFigures f) {
         return summary(f);
+    }
+
+    /** Draws a bold title, shrinking the font (down to 10 pt) and then cutting it so it fits the width. */
+    private static void drawFitted(Graphics2D g, String text, int maxWidth, int x, int y) {
+        String t = text;
+        for (int size = 14; size >= 10; size--) {
+            g.setFont(new Font(Font.SANS_SERIF, Font.BOLD, size));
+            if (g.getFontMetrics().stringWidth(t) <= maxWidth) {
+                g.drawString(t, x, y);
+                return;
+            }
+        }
+        FontMetrics fm = g.getFontMetrics();
+        while (t.length() > 1 && fm.stringWidth(t + "...") > maxWidth) {
+            t = t.substring(0, t.length() - 1);
+        }
+        g.drawString(t + "...", x, y);
     }
 
     static String summary(PsfFigures f) {

@@ -21,18 +21,22 @@ import java.util.List;
  *
  * <h2>Differences from {@link QualityReference}</h2>
  * <ul>
- *   <li>Stars: the accepted stars of a {@link StarMeasurement} (unsaturated, unblended, star-like) whose
+ *   <li>Stars: the accepted stars of a {@link StarMeasurement} (unblended, star-like, no pixel of the fit
+ *       stamp at or above the saturation level when it is known) whose
  *       peak is at least {@code minPeakSigma} local background σ, isolated among <i>all</i> detections with the
  *       detection significance standing in for the flux, brightest (largest Gaussian flux) first.</li>
  *   <li>Sky noise: 1.4826·MAD of the image minus the input's mesh background map (so that a smooth nebula or
  *       gradient does not count as noise), over pixels farther than {@code max(8, 3·FWHM)} pixels from every
  *       detection whose background-subtracted input lies within ±5 σ of zero and, smoothed by a Gaussian of
- *       FWHM 4 px, stays below 0.5 σ (faint wings and filaments are not sky). The output uses the same
- *       pixels and the same background map.</li>
+ *       FWHM 4 px, stays within ±0.5 σ (faint wings, filaments and background-map misfits are not sky). The
+ *       output uses the same pixels and the same background map. Whole-number data (16-bit images) are
+ *       dithered before the MAD, as in {@link QualityMetrics#skyNoise}.</li>
  *   <li>No error-vs-truth: the report's truth figures are NaN.</li>
  * </ul>
  */
 public final class ObservedQuality {
+    /** Seed of the dither applied to whole-number data before the MAD (reproducible). */
+    static final long DITHER_SEED = 0x5EEDL;
     /** Pixels of the background-subtracted input beyond this many σ are not sky (undetected structure). */
     static final double SKY_CLIP_SIGMA = 5.0;
     /** FWHM in pixels of the smoothing that reveals faint structure for the sky mask. */
@@ -68,15 +72,18 @@ public final class ObservedQuality {
     /**
      * Measures the input's stars with the stars package's defaults, then builds the reference.
      *
-     * @param input    the observed image, plane 0 (input, not modified)
-     * @param settings the metric constants
-     * @param threads  worker threads for the measurement, ≥ 1 (the result does not depend on it)
+     * @param input      the observed image, plane 0 (input, not modified)
+     * @param saturation level at or above which a pixel is saturated (header SATURATE, the data type's
+     *                   ceiling), or NaN if unknown
+     * @param settings   the metric constants
+     * @param threads    worker threads for the measurement, ≥ 1 (the result does not depend on it)
      * @return the reference
      * @throws IllegalArgumentException if no usable star or too little sky is found
      */
-    public static ObservedQuality measure(Image input, QualitySettings settings, int threads) {
-        StarMeasurement m = StarMeasurer.measure(input.planeImage(0), MeasureSettings.defaults().withThreads(threads));
-        return of(input, m, settings, threads);
+    public static ObservedQuality measure(Image input, double saturation, QualitySettings settings, int threads) {
+        StarMeasurement m = StarMeasurer.measure(input.planeImage(0),
+                MeasureSettings.defaults().withThreads(threads).withSaturation(saturation));
+        return of(input, m, saturation, settings, threads);
     }
 
     /**
@@ -84,12 +91,15 @@ public final class ObservedQuality {
      *
      * @param input       the observed image, plane 0 (input, not modified)
      * @param measurement stars measured on that plane
+     * @param saturation  level at or above which a pixel is saturated, or NaN if unknown; stars with a
+     *                    pixel at or above it within the fit stamp are left out
      * @param settings    the metric constants
      * @param threads     worker threads for the background map, ≥ 1
      * @return the reference
      * @throws IllegalArgumentException if no usable star or too little sky is found
      */
-    public static ObservedQuality of(Image input, StarMeasurement measurement, QualitySettings settings, int threads) {
+    public static ObservedQuality of(Image input, StarMeasurement measurement, double saturation,
+                                     QualitySettings settings, int threads) {
         int w = input.width();
         int h = input.height();
         if (measurement.width() != w || measurement.height() != h) {
@@ -104,7 +114,8 @@ public final class ObservedQuality {
         List<Detection> det = measurement.detections();
         List<MeasuredStar> chosen = new ArrayList<>();
         for (MeasuredStar s : measurement.stars()) {
-            if (s.snr() >= settings.minPeakSigma() && isolated(s, det, settings)) {
+            if (s.snr() >= settings.minPeakSigma() && isolated(s, det, settings)
+                    && !saturated(input, s.x(), s.y(), settings.fitStamp() / 2, saturation)) {
                 chosen.add(s);
             }
         }
@@ -151,7 +162,7 @@ public final class ObservedQuality {
         float[] smooth = GaussianSmoothing.smooth(resid, w, h, STRUCTURE_FWHM);
         int n = 0;
         for (int i = 0; i < px.length; i++) {
-            if (sky[i] && (!(Math.abs(resid[i]) <= SKY_CLIP_SIGMA * sigma) || smooth[i] > STRUCTURE_SIGMA * sigma)) {
+            if (sky[i] && (!(Math.abs(resid[i]) <= SKY_CLIP_SIGMA * sigma) || Math.abs(smooth[i]) > STRUCTURE_SIGMA * sigma)) {
                 sky[i] = false;
             }
             n += sky[i] ? 1 : 0;
@@ -161,6 +172,22 @@ public final class ObservedQuality {
                     + "figures need at least 1000");
         }
         return new ObservedQuality(input, settings, bg, sky, fwhmStars, ringStars);
+    }
+
+    private static boolean saturated(Image img, double x, double y, int half, double level) {
+        if (Double.isNaN(level)) {
+            return false;
+        }
+        int cx = (int) Math.round(x);
+        int cy = (int) Math.round(y);
+        for (int j = Math.max(0, cy - half); j <= Math.min(img.height() - 1, cy + half); j++) {
+            for (int i = Math.max(0, cx - half); i <= Math.min(img.width() - 1, cx + half); i++) {
+                if (img.get(i, j) >= level) {
+                    return true;
+                }
+            }
+        }
+        return false;
     }
 
     private static boolean inside(double x, double y, double border, int w, int h) {
@@ -198,13 +225,29 @@ public final class ObservedQuality {
     private double skyNoise(Image img) {
         float[] px = img.plane(0);
         double[] v = new double[px.length];
+        boolean integral = true;
         int n = 0;
         for (int i = 0; i < px.length; i++) {
             if (skyMask[i] && Float.isFinite(px[i])) {
-                v[n++] = px[i] - background[i];
+                integral &= px[i] == Math.rint(px[i]);
+                v[n++] = px[i];
             }
         }
-        return Robust.madSigma(v, n);
+        // Quantised data: dither the raw whole numbers (see Robust.madSigmaDequantised), then subtract the
+        // background; the dither's 1/12 variance is removed in quadrature.
+        if (integral && n > 0) {
+            java.util.SplittableRandom rnd = new java.util.SplittableRandom(DITHER_SEED);
+            for (int i = 0; i < n; i++) {
+                v[i] += rnd.nextDouble() - 0.5;
+            }
+        }
+        for (int i = 0, k = 0; i < px.length; i++) {
+            if (skyMask[i] && Float.isFinite(px[i])) {
+                v[k++] -= background[i];
+            }
+        }
+        double s = Robust.madSigma(v, n);
+        return integral ? Math.sqrt(Math.max(0, s * s - 1.0 / 12)) : s;
     }
 
     /**

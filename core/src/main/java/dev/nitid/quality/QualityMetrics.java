@@ -20,7 +20,9 @@ public final class QualityMetrics {
 
     /**
      * Sky noise: {@code σ = 1.4826 · median(|v − median(v)|)} over the pixels of a star-free sky mask, the
-     * robust σ of Gaussian data (Rousseeuw &amp; Croux 1993, JASA 88, 1273).
+     * robust σ of Gaussian data (Rousseeuw &amp; Croux 1993, JASA 88, 1273). Integer-valued data (16-bit
+     * images) are dithered first so that the MAD is not stuck on whole numbers (see
+     * {@code Robust.madSigmaDequantised}).
      *
      * @param image   plane 0 used (input, not modified)
      * @param skyMask true on star-free sky, row-major (input, not modified)
@@ -36,7 +38,7 @@ public final class QualityMetrics {
                 v[n++] = px[i];
             }
         }
-        return Robust.madSigma(v, n);
+        return Robust.madSigmaDequantised(v, n);
     }
 
     /**

@@ -139,7 +139,7 @@ public final class QualityReference {
      * @return the report
      */
     public QualityReport evaluate(Image output) {
-        if (!output.sameShape(input) && (output.width() != input.width() || output.height() != input.height())) {
+        if (output.width() != input.width() || output.height() != input.height()) {
             throw new IllegalArgumentException("output is " + output.width() + "x" + output.height()
                     + " but the input is " + input.width() + "x" + input.height() + ": score a same-size restoration");
         }

@@ -1,6 +1,8 @@
 package dev.nitid.synth;
 
 import dev.nitid.psf.PsfModel;
+import dev.nitid.psf.PsfParameter;
+import java.util.Locale;
 
 /**
  * Any {@link PsfModel} of the psf package (for example a {@code PupilPsf} with obstruction, vanes and
@@ -39,8 +41,20 @@ public record RenderedModelPsf(PsfModel model, int size, int oversample) impleme
         System.arraycopy(k, 0, out, 0, k.length);
     }
 
+    /** @return the model family and its first parameters as the psf package lists them, and the stamp side */
     @Override
     public String describe() {
-        return model.family() + " PSF model, stamp " + size + " px";
+        StringBuilder sb = new StringBuilder(model.family());
+        int n = 0;
+        for (PsfParameter p : model.parameters()) {
+            if (p.key().equals("PSFMODEL") || n >= 4) {
+                continue;
+            }
+            Object v = p.value();
+            sb.append(n == 0 ? " " : ", ").append(p.key().toLowerCase(Locale.ROOT)).append(' ')
+                    .append(v instanceof Double d ? String.format(Locale.ROOT, "%.4g", d) : String.valueOf(v));
+            n++;
+        }
+        return sb.append(", stamp ").append(size).append(" px").toString();
     }
 }

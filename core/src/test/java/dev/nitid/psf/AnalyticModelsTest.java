@@ -85,6 +85,7 @@ class AnalyticModelsTest {
             double v = Double.parseDouble(r.get("value"));
             // double-precision evaluation of the same closed form: 1e-12 relative (reference README §3)
             assertEquals(v, m.value(x, y), 1e-12 * v, "Moffat value at (" + x + ", " + y + ") α " + alpha + " β " + beta);
+            assertEquals(v, m.evaluator().applyAsDouble(x, y), 1e-12 * v, "evaluator = value");
             double fwhm = Double.parseDouble(r.get("fwhm"));
             assertEquals(fwhm, m.fwhmMajor(), 1e-12 * fwhm, "astropy Moffat2D.fwhm");
         }
@@ -101,6 +102,7 @@ class AnalyticModelsTest {
             double y = Double.parseDouble(r.get("y"));
             double v = Double.parseDouble(r.get("value"));
             assertEquals(v, g.value(x, y), 1e-12 * v + 1e-300, "Gaussian2D at (" + x + ", " + y + ") θ " + deg);
+            assertEquals(v, g.evaluator().applyAsDouble(x, y), 1e-12 * v + 1e-300, "evaluator = value");
             assertEquals(Double.parseDouble(r.get("x_fwhm")), g.fwhmMajor(), 1e-12 * g.fwhmMajor());
         }
     }

@@ -17,6 +17,8 @@ import dev.nitid.synth.ModelPsf;
 import dev.nitid.synth.Placement;
 import dev.nitid.synth.StarSettings;
 import dev.nitid.synth.SyntheticField;
+import dev.nitid.synth.TruthStar;
+import java.util.List;
 import org.junit.jupiter.api.Test;
 
 /**
@@ -42,7 +44,7 @@ class ObservedQualityTest {
                 .withIterations(20).withProtection(StarProtection.none()).withThreads(2))
                 .restore(f.observed(), f.psf()).image();
         QualityReport truth = QualityReference.of(f, QualitySettings.defaults()).evaluate(restored);
-        ObservedQuality observed = ObservedQuality.measure(f.observed(), QualitySettings.defaults(), 2);
+        ObservedQuality observed = ObservedQuality.measure(f.observed(), Double.NaN, QualitySettings.defaults(), 2);
         QualityReport blind = observed.evaluate(restored);
 
         assertTrue(observed.fwhmStars().size() >= 10, "stars " + observed.fwhmStars().size());
@@ -55,5 +57,36 @@ class ObservedQualityTest {
         assertTrue(blind.ringDepth() > 1, "plain RL digs rings: " + blind.ring());
         assertEquals(truth.ringDepth(), blind.ringDepth(), 0.25 * truth.ringDepth() + 0.5, "ring depth");
         assertTrue(Double.isNaN(blind.errorRatio()), "no truth, no error figure");
+
+        // Pinned failure: the same field stored as whole numbers (a 16-bit file) gave σ 6 % low before the
+        // dither; rounding adds 1/12 to the variance (quantisation noise, from memory).
+        Image rounded = f.observed().copy();
+        float[] px = rounded.plane(0);
+        for (int i = 0; i < px.length; i++) {
+            px[i] = (float) Math.rint(px[i]);
+        }
+        double sq = Math.sqrt(Math.pow(f.settings().detector().skySigma(), 2) + 1.0 / 12);
+        assertEquals(sq, ObservedQuality.measure(rounded, Double.NaN, QualitySettings.defaults(), 2).inputSigma(), 0.03 * sq,
+                "whole-number input σ");
+    }
+
+    @Test
+    void saturatedStarsAreLeftOut() {
+        // Pinned failure: on the demo field the one saturated star was picked as a ring star (28 σ instead
+        // of 5 σ) because the star measurement was not told the saturation level.
+        double level = 30000;
+        SyntheticField f = FieldGenerator.generate(new FieldSettings(256, 256, 5,
+                new StarSettings(16, FluxLaw.UNIFORM_MAGNITUDE, 2e4, 3e6, 1, Placement.GRID, 36),
+                ExtendedSettings.none(), ModelPsf.moffat(3.5, 3).withSize(41),
+                new DetectorSettings(150, 1.5, 6, 2, level)));
+        List<TruthStar> sat = f.catalogue().stream().filter(TruthStar::saturated).toList();
+        assertTrue(!sat.isEmpty() && sat.size() < f.catalogue().size(), "some stars saturate: " + sat.size());
+        ObservedQuality q = ObservedQuality.measure(f.observed(), level, QualitySettings.defaults(), 2);
+        assertTrue(!q.fwhmStars().isEmpty(), "unsaturated stars remain");
+        for (StarSite s : q.fwhmStars()) {
+            for (TruthStar t : sat) {
+                assertTrue(Math.hypot(s.x() - t.x(), s.y() - t.y()) > 3, "saturated star selected: " + t);
+            }
+        }
     }
 }

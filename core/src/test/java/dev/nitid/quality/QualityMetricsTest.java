@@ -46,9 +46,29 @@ class QualityMetricsTest {
     }
 
     @Test
+    void skyNoiseOfWholeNumberDataIsNotStuckOnTheLattice() {
+        // Pinned failure: on a 16-bit demo field the MAD of whole-number sky values gave σ 6 % low. Rounded
+        // Gaussian noise has variance σ² + 1/12 (Sheppard 1898; quantisation noise, Widrow & Kollár 2008 —
+        // from memory); the dithered estimate must find it within the MAD's 2 % band.
+        double sigma = 2.3;
+        Image img = noise(400, 400, 1000, sigma, 21);
+        float[] px = img.plane(0);
+        double[] raw = new double[px.length];
+        for (int i = 0; i < px.length; i++) {
+            px[i] = (float) Math.rint(px[i]);
+            raw[i] = px[i];
+        }
+        double expected = Math.sqrt(sigma * sigma + 1.0 / 12);
+        assertEquals(expected, QualityMetrics.skyNoise(img, all(img)), MAD_RTOL * expected, "dithered σ");
+        double plain = dev.nitid.quality.internal.Robust.madSigma(raw, raw.length);
+        assertTrue(Math.abs(plain / expected - 1) > MAD_RTOL, "the plain MAD is biased here: " + plain);
+    }
+
+    @Test
     void skyNoiseOfTheReferenceExample() {
-        // Reference README §7: [1,2,3,4,100] has MAD 1, so σ̂ = 1.482602 (astropy.stats.mad_std).
-        Image img = Image.wrap(5, 1, new float[] {1, 2, 3, 4, 100});
+        // Reference README §7: [1,2,3,4,100] has MAD 1, so σ̂ = 1.482602 (astropy.stats.mad_std). Shifted by
+        // ½ (the MAD is shift-invariant) so that the whole-number dither does not apply.
+        Image img = Image.wrap(5, 1, new float[] {1.5f, 2.5f, 3.5f, 4.5f, 100.5f});
         assertEquals(1.482602218505602, QualityMetrics.skyNoise(img, all(img)), 1e-12);
     }
 

@@ -240,6 +240,37 @@ class MethodsAndEdgesTest {
     }
 
     @Test
+    void noiseEstimateIgnoresASmoothNebulaAndStars() {
+        // Poisson sky of 100 e⁻ under a broad nebula that rises to +400 e⁻, plus bright stars: the
+        // neighbour-difference estimate must still give σ ≈ √(local mean) of the sky-dominated pixels; a plain
+        // MAD of the pixels would be inflated several times by the nebula's spread
+        SplittableRandom rnd = new SplittableRandom(12);
+        int n = 200;
+        Image img = Image.create(n, n);
+        Image clean = Image.create(n, n);
+        for (int y = 0; y < n; y++) {
+            for (int x = 0; x < n; x++) {
+                double neb = 400 * Math.exp(-((x - 100) * (x - 100) + (y - 100) * (y - 100)) / (2 * 40.0 * 40.0));
+                clean.set(x, y, (float) (100 + neb));
+                img.set(x, y, (float) Fixtures.poisson(rnd, 100 + neb));
+            }
+        }
+        for (int s = 0; s < 30; s++) {
+            img.set(rnd.nextInt(n), rnd.nextInt(n), 1e5f);
+        }
+        double madAll = img.stats(0).madSigma();
+        var est = dev.nitid.restore.internal.SkyNoise.of(img.plane(0), null, n, n);
+        // the median pixel sits on the nebula's outskirts: σ between √100 and √(100 + 400·e^{-1/2}) (Poisson)
+        assertTrue(est.sigma() > 10 * 0.95 && est.sigma() < Math.sqrt(100 + 400 * Math.exp(-0.5)),
+                "difference-based σ " + est.sigma() + " (plain MAD " + madAll + ")");
+        assertTrue(madAll > 3 * est.sigma(), "the nebula inflates the plain MAD: " + madAll);
+        // 3σ clipping moves the level from the frame's median (raised by the nebula) towards the 100 e⁻ sky
+        double plainMedian = clean.stats(0).median();
+        assertTrue(est.sky() >= 100 - est.sigma() && est.sky() < plainMedian - 2 * est.sigma(),
+                "clipped sky " + est.sky() + " between the sky 100 and the plain median " + plainMedian);
+    }
+
+    @Test
     void wienerWithVanishingKInvertsAnInvertibleBlur() {
         // §5.2.5: K → 0 and H invertible (periodic) ⇒ wiener(K x) = x; this PSF has |H| ≥ 0.2 everywhere
         Image psf = Image.create(3, 3);

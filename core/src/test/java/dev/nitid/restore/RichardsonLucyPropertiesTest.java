@@ -154,6 +154,8 @@ class RichardsonLucyPropertiesTest {
                 break;
             }
         }
+        System.out.println("accelerated RL reached plain RL's " + plainIters + "-iteration likelihood after "
+                + reached + " iterations");
         assertTrue(reached > 0 && reached <= plainIters / 2,
                 "accelerated RL reached plain RL's 40-iteration likelihood after " + reached + " iterations");
     }

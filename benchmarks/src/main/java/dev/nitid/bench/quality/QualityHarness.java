@@ -51,9 +51,11 @@ public final class QualityHarness {
         m.add(new Entry("plain RL, 30 it, no protection", plain.withProtection(StarProtection.none())));
         m.add(new Entry("plain RL, 30 it, sky floor", plain.withProtection(StarProtection.skyFloor())));
         m.add(new Entry("plain RL, 30 it, ring floor", plain.withProtection(StarProtection.ringFloor())));
-        m.add(new Entry("defaults (accelerated RL, auto stop, ring floor)", d));
-        m.add(new Entry("TV-RL, auto stop, ring floor", d.withMethod(Method.TV_RL)));
-        m.add(new Entry("damped RL, auto stop, ring floor", d.withMethod(Method.DAMPED_RL)));
+        m.add(new Entry("defaults (" + describe(d) + ")", d));
+        m.add(new Entry("accelerated RL, " + describe(d.withMethod(Method.ACCELERATED_RL)).replaceFirst("^[^,]*, ", ""),
+                d.withMethod(Method.ACCELERATED_RL)));
+        m.add(new Entry("TV-RL, " + describe(d).replaceFirst("^[^,]*, ", ""), d.withMethod(Method.TV_RL)));
+        m.add(new Entry("damped RL, " + describe(d).replaceFirst("^[^,]*, ", ""), d.withMethod(Method.DAMPED_RL)));
         m.add(new Entry("Wiener (K estimated)", d.withMethod(Method.WIENER)));
         m.add(new Entry("Tikhonov", d.withMethod(Method.TIKHONOV)));
         return m;
@@ -160,6 +162,13 @@ public final class QualityHarness {
                 o.println("| scikit-image RL | (failed: " + log.replace('\n', ' ') + ") | | | | | | |");
             }
         }
+    }
+
+    /** @return "method, stopping rule, star guard" of a setting, so that the table labels follow the defaults */
+    static String describe(RestoreSettings s) {
+        return s.method().name().toLowerCase(Locale.ROOT).replace('_', '-') + ", "
+                + s.stopping().rule().name().toLowerCase(Locale.ROOT).replace('_', ' ') + ", guard "
+                + s.protection().guard().name().toLowerCase(Locale.ROOT).replace('_', ' ');
     }
 
     /** @return a file-name form of a method name: lower case, runs of other characters as one '-' */

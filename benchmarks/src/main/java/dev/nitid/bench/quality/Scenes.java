@@ -10,10 +10,16 @@ import dev.nitid.synth.ModelPsf;
 import dev.nitid.synth.Placement;
 import dev.nitid.synth.StarSettings;
 
-/** The two invented scenes of the harness. Fixed seeds: the tables are reproducible. */
-final class Scenes {
+/**
+ * The two invented scenes of the quality harness, public so that tuning tools use exactly these settings.
+ * Fixed seeds: the tables are reproducible.
+ */
+public final class Scenes {
     /** Side of both scenes in pixels. */
-    static final int SIZE = 512;
+    public static final int SIZE = 512;
+
+    /** The scene names, in table order. */
+    public static final java.util.List<String> NAMES = java.util.List.of("seeing", "diffraction");
 
     private Scenes() {
     }
@@ -34,7 +40,7 @@ final class Scenes {
     }
 
     /** @return seeing-limited: Moffat FWHM 4 px, β 3 (an invented night of average seeing) */
-    static FieldSettings seeing() {
+    public static FieldSettings seeing() {
         return new FieldSettings(SIZE, SIZE, 20261201L, stars(), extended(),
                 ModelPsf.moffat(4.0, 3.0).withSize(63), detector());
     }
@@ -44,11 +50,24 @@ final class Scenes {
      *         vanes 1.5 % of the aperture wide, monochromatic 550 nm, sampled at 2.4 px per λ/D (Airy core
      *         FWHM ≈ 2.5 px); the PSF is the psf package's pupil model rendered once (stars on pixel centres)
      */
-    static FieldSettings diffraction() {
+    public static FieldSettings diffraction() {
         PupilPsf pupil = PupilPsf.ofSampling(1 / 2.4, 550).withObstruction(0.33)
                 .withVanes(4, 0.015 * 100, 0); // ofSampling's aperture is 100 mm
         return new FieldSettings(SIZE, SIZE, 20261202L, stars(), extended(),
                 ImagePsf.of(pupil.render(101, 3, 0, 0), "pupil model: eps 0.33, 4 vanes 1.5% of D, 2.4 px per lambda/D"),
                 detector());
+    }
+
+    /**
+     * @param name "seeing" or "diffraction"
+     * @return that scene's settings
+     * @throws IllegalArgumentException for another name
+     */
+    public static FieldSettings byName(String name) {
+        return switch (name) {
+            case "seeing" -> seeing();
+            case "diffraction" -> diffraction();
+            default -> throw new IllegalArgumentException("scene '" + name + "' is unknown: use seeing or diffraction");
+        };
     }
 }

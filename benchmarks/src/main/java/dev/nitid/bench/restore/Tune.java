@@ -85,6 +85,7 @@ public final class Tune {
                     case "RL" -> Method.RICHARDSON_LUCY;
                     case "ACC" -> Method.ACCELERATED_RL;
                     case "TV" -> Method.TV_RL;
+                    case "W" -> Method.WIENER;
                     default -> Method.DAMPED_RL;
                 });
                 case "it" -> s = s.withIterations(Integer.parseInt(a[1]));

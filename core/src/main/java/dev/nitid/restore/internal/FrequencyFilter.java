@@ -16,11 +16,13 @@ import dev.nitid.fft.RealFft2d;
  *   <li>Tikhonov (Wiener–Hunt): {@code R = λ |D|²}, {@code |D|² = (4 − 2cos 2πu/M − 2cos 2πv/N)²}, the 5-point
  *       Laplacian — scikit-image 0.19's {@code restoration.wiener};</li>
  *   <li>Wiener, K given: {@code R = K};</li>
- *   <li>Wiener, K estimated: {@code R = |H|² Pn / max(P̄_Y − Pn, Pn·1e-6)} with {@code Pn = MN σ²} the white-noise
- *       power of the unnormalised DFT and {@code P̄_Y} the azimuthal mean of {@code |Y|²} in rings of one
- *       frequency bin; equivalently the filter is {@code (1/H) · max(0, 1 − Pn/P̄_Y)}, the classic
+ *   <li>Wiener, K estimated: {@code R = |H|² Pn / max(P̄_Y − κ Pn, Pn·1e-6)} with {@code Pn = MN σ²} the white-noise
+ *       power of the unnormalised DFT, {@code P̄_Y} the azimuthal mean of {@code |Y|²} in rings of one
+ *       frequency bin and κ = {@link #NOISE_OVERSUBTRACTION}; for κ = 1 the filter is
+ *       {@code (1/H) · max(0, 1 − Pn/P̄_Y)}, the classic
  *       power-spectrum-subtraction Wiener estimate (Gonzalez &amp; Woods, Digital Image Processing, §5.8,
- *       section from memory).</li>
+ *       section from memory); then {@code R} is raised to a constant floor that keeps the white-noise
+ *       gain {@code sqrt(mean|W|²)} at most {@link #MAX_NOISE_GAIN}.</li>
  * </ul>
  * For {@link EdgeHandling#PERIODIC} the grid is the frame; otherwise the frame is padded to a fast size with
  * the half-sample mirror of itself ({@link EdgeHandling#ZERO}: zeros), which removes the seams of the
@@ -34,6 +36,22 @@ public final class FrequencyFilter implements AutoCloseable {
         /** Laplacian regulariser. */
         TIKHONOV
     }
+
+    /**
+     * The noise power is subtracted this many times when the signal power is estimated, so a frequency
+     * needs a signal at least as strong as the noise before the filter amplifies it (over-subtraction in
+     * spectral subtraction, Berouti, Schwartz &amp; Makhoul 1979, ICASSP, from memory). Without it, rings
+     * where the measured power exceeds the noise by chance get gains of 1/H near the band limit, and a
+     * band-limited (diffraction) PSF blows up; measured on the quality harness (notes/restore.md).
+     */
+    public static final double NOISE_OVERSUBTRACTION = 2.0;
+    /**
+     * When K is estimated, it is raised where needed to a floor that keeps the filter's white-noise gain at
+     * or below this (the acceptance bound of issue 5 on the sky-noise ratio; our choice). On star fields
+     * the stars' power is flat and strong, so the per-frequency estimate alone approaches 1/H and
+     * multiplies the sky noise tens of times (measured on the quality harness, notes/restore.md).
+     */
+    public static final double MAX_NOISE_GAIN = 1.5;
 
     private final int width;
     private final int height;
@@ -121,6 +139,7 @@ public final class FrequencyFilter implements AutoCloseable {
                 ringMean[b] = cnt[b] > 0 ? ringMean[b] / cnt[b] : 0;
             }
         }
+        double kCap = ringMean != null ? noiseGainFloor(ringMean, pn, sw) : 0;
         for (int v = 0; v < gh; v++) {
             double cv = Math.cos(2 * Math.PI * v / gh);
             for (int u = 0; u < sw; u++) {
@@ -133,8 +152,8 @@ public final class FrequencyFilter implements AutoCloseable {
                     double lap = 4 - 2 * Math.cos(2 * Math.PI * u / gw) - 2 * cv;
                     r = reg * lap * lap;
                 } else if (ringMean != null) {
-                    double sig = ringMean[ring(u, v)] - pn;
-                    r = h2 * pn / Math.max(sig, pn * 1e-6);
+                    double sig = ringMean[ring(u, v)] - NOISE_OVERSUBTRACTION * pn;
+                    r = Math.max(h2 * pn / Math.max(sig, pn * 1e-6), kCap);
                 } else {
                     r = reg;
                 }
@@ -159,6 +178,50 @@ public final class FrequencyFilter implements AutoCloseable {
     @Override
     public void close() {
         fft.close();
+    }
+
+    /**
+     * The smallest constant K that keeps the estimated filter's white-noise gain
+     * {@code sqrt(mean |W|²)} at or below {@link #MAX_NOISE_GAIN} (bisection in log K on a regular sample of
+     * at most 2²⁰ frequencies; by Parseval the mean of |W|² over frequencies is the filter's noise-power gain).
+     */
+    private double noiseGainFloor(double[] ringMean, double pn, int sw) {
+        int total = gh * sw;
+        int step = Math.max(1, total / (1 << 20));
+        double lo = 1e-12;
+        double hi = 1e3;
+        if (noiseGain(ringMean, pn, sw, step, 0) <= MAX_NOISE_GAIN) {
+            return 0;
+        }
+        for (int it = 0; it < 50; it++) {
+            double mid = Math.sqrt(lo * hi);
+            if (noiseGain(ringMean, pn, sw, step, mid) > MAX_NOISE_GAIN) {
+                lo = mid;
+            } else {
+                hi = mid;
+            }
+        }
+        return hi;
+    }
+
+    private double noiseGain(double[] ringMean, double pn, int sw, int step, double kCap) {
+        double sum = 0;
+        double count = 0;
+        int total = gh * sw;
+        for (int j = 0; j < total; j += step) {
+            int v = j / sw;
+            int u = j % sw;
+            int i = 2 * j;
+            double h2 = (double) h[i] * h[i] + (double) h[i + 1] * h[i + 1];
+            double sig = ringMean[ring(u, v)] - NOISE_OVERSUBTRACTION * pn;
+            double r = Math.max(h2 * pn / Math.max(sig, pn * 1e-6), kCap);
+            double den = h2 + r;
+            // columns 1 .. W/2−1 of the half spectrum stand for two frequencies each
+            double wgt = (u == 0 || 2 * u == gw) ? 1 : 2;
+            sum += den > 0 ? wgt * h2 / (den * den) : 0;
+            count += wgt;
+        }
+        return Math.sqrt(sum / count);
     }
 
     private int ring(int u, int v) {

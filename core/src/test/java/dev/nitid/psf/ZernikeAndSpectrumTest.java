@@ -1,0 +1,79 @@
+package dev.nitid.psf;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+
+import java.util.Map;
+import org.junit.jupiter.api.Test;
+
+/** Noll's Zernike normalisation and ordering, and the band sampling convention. */
+class ZernikeAndSpectrumTest {
+
+    /**
+     * Orthonormality over the unit circle with weight 1/π (Noll 1976, JOSA 66, 207, eq. 4): the mean of
+     * Z_j·Z_k over the disk is δ_jk. Quadrature: midpoint rule in u = ρ² (uniform area) and θ, exact to
+     * ~1e-6 for these low-order polynomials at 400 × 256 points (common practice, no source).
+     */
+    @Test
+    void nollPolynomialsAreOrthonormal() {
+        int nu = 400;
+        int nt = 256;
+        for (int j = Zernike.FIRST; j <= Zernike.LAST; j++) {
+            for (int k = j; k <= Zernike.LAST; k++) {
+                Zernike zj = Zernike.single(j, 1);
+                Zernike zk = Zernike.single(k, 1);
+                double sum = 0;
+                for (int a = 0; a < nu; a++) {
+                    double rho = Math.sqrt((a + 0.5) / nu);
+                    for (int b = 0; b < nt; b++) {
+                        double t = 2 * Math.PI * (b + 0.5) / nt;
+                        double x = rho * Math.cos(t);
+                        double y = rho * Math.sin(t);
+                        sum += zj.wavefront(x, y) * zk.wavefront(x, y);
+                    }
+                }
+                double mean = sum / (nu * nt);
+                assertEquals(j == k ? 1 : 0, mean, 1e-4, "<Z" + j + " Z" + k + ">");
+            }
+        }
+    }
+
+    /** Values from Noll 1976, Table 1 (which term is sin and which cos follows his even/odd rule). */
+    @Test
+    void nollTableValues() {
+        double s3 = Math.sqrt(3);
+        double s5 = Math.sqrt(5);
+        double s6 = Math.sqrt(6);
+        double s8 = Math.sqrt(8);
+        assertEquals(s3, Zernike.single(4, 1).wavefront(1, 0), 1e-12, "Z4 = √3(2ρ²−1) at the rim");
+        assertEquals(-s3, Zernike.single(4, 1).wavefront(0, 0), 1e-12, "Z4 at the centre");
+        assertEquals(s6, Zernike.single(5, 1).wavefront(Math.sqrt(0.5), Math.sqrt(0.5)), 1e-12, "Z5 = √6ρ² sin2θ at 45°");
+        assertEquals(s6, Zernike.single(6, 1).wavefront(1, 0), 1e-12, "Z6 = √6ρ² cos2θ at 0°");
+        assertEquals(s8, Zernike.single(7, 1).wavefront(0, 1), 1e-12, "Z7 = √8(3ρ³−2ρ) sinθ at 90°");
+        assertEquals(s8, Zernike.single(8, 1).wavefront(1, 0), 1e-12, "Z8 = √8(3ρ³−2ρ) cosθ at 0°");
+        assertEquals(s8, Zernike.single(9, 1).wavefront(Math.cos(Math.PI / 6), Math.sin(Math.PI / 6)), 1e-12,
+                "Z9 = √8ρ³ sin3θ at 30°");
+        assertEquals(s8, Zernike.single(10, 1).wavefront(1, 0), 1e-12, "Z10 = √8ρ³ cos3θ at 0°");
+        assertEquals(s5, Zernike.single(11, 1).wavefront(0, 0), 1e-12, "Z11 = √5(6ρ⁴−6ρ²+1) at the centre");
+        assertEquals(0.5, Zernike.of(Map.of(4, 0.3, 6, 0.4)).rmsWaves(), 1e-12, "RMS adds in quadrature");
+        assertThrows(IllegalArgumentException.class, () -> Zernike.single(3, 0.1), "tilt is not a PSF aberration");
+        assertThrows(IllegalArgumentException.class, () -> Zernike.single(12, 0.1));
+    }
+
+    @Test
+    void bandSampling() {
+        Spectrum s = Spectrum.band(500, 600);
+        assertEquals(5, s.size(), "100 nm at one per 20 nm, at least 5");
+        assertEquals(510, s.wavelength(0), 1e-12, "bin centres");
+        assertEquals(590, s.wavelength(4), 1e-12);
+        assertEquals(500, s.edgesNm()[0], 1e-9);
+        assertEquals(600, s.edgesNm()[1], 1e-9);
+        assertEquals(550, s.centreNm(), 1e-12);
+        assertEquals(0.2, s.weight(2), 1e-15, "equal photon weights");
+        assertEquals(15, Spectrum.band(400, 700).size());
+        assertThrows(IllegalArgumentException.class, () -> Spectrum.band(600, 500));
+        assertThrows(IllegalArgumentException.class, () -> Spectrum.band(500, 600, 4), "at least 5 wavelengths");
+        Spectrum mono = Spectrum.monochromatic(656.3);
+        assertEquals(656.3, mono.edgesNm()[0], 0);
+    }
+}
