@@ -41,6 +41,11 @@ public final class StarMeasurer {
             .withTolerances(1e-9, 1e-8);
     /** Half-size of the core box checked for saturation and masked pixels (5×5 core). */
     private static final int CORE = 2;
+    /**
+     * A flat top counts as saturation only at or above this fraction of the frame's brightest pixel: clipped
+     * stars sit at the frame's ceiling, while faint stars in integer data often have a few equal peak values.
+     */
+    private static final double FLAT_TOP_FRACTION = 0.5;
     /** Fewest equal peak pixels that mark a flat (clipped) top. */
     private static final int FLAT_TOP_PIXELS = 3;
 
@@ -166,10 +171,16 @@ public final class StarMeasurer {
         RejectReason[] fate = new RejectReason[cands.size()];
         double[][] where = new double[cands.size()][];
         int skipped = 0;
+        float frameMax = Float.NEGATIVE_INFINITY;
+        for (float v : pixels) {
+            if (v > frameMax) {
+                frameMax = v;
+            }
+        }
         for (int ci = 0; ci < cands.size(); ci++) {
             Candidate c = cands.get(ci);
             where[ci] = new double[] {c.subX(), c.subY()};
-            RejectReason why = cheapReject(c, pixels, resid, width, height, grid, s);
+            RejectReason why = cheapReject(c, pixels, resid, width, height, grid, s, frameMax);
             if (why != null) {
                 rejected.merge(why, 1, Integer::sum);
                 fate[ci] = why;
@@ -563,7 +574,7 @@ public final class StarMeasurer {
     }
 
     private static RejectReason cheapReject(Candidate c, float[] raw, float[] resid, int w, int h,
-                                            CandidateGrid grid, MeasureSettings s) {
+                                            CandidateGrid grid, MeasureSettings s, float frameMax) {
         int r = s.stampRadius();
         int x = c.x();
         int y = c.y();
@@ -597,7 +608,7 @@ public final class StarMeasurer {
                 }
             }
         }
-        if (equal >= FLAT_TOP_PIXELS) {
+        if (equal >= FLAT_TOP_PIXELS && max >= FLAT_TOP_FRACTION * frameMax) {
             return RejectReason.SATURATED;
         }
         if (grid.hasBrightNeighbour(c, r, s.blendFraction())) {
