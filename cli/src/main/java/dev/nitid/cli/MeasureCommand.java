@@ -358,8 +358,12 @@ public final class MeasureCommand implements Callable<Integer> {
         }
         out.printf(Locale.ROOT, "gaussian fit: FWHM %.3f px, ellipticity %.3f, %d stars%n", m.gaussian().fwhm(),
                 m.gaussian().ellipticity(), m.gaussian().count());
-        out.printf(Locale.ROOT, "moffat fit:   FWHM %.3f px, ellipticity %.3f, beta %.2f, %d stars%n", m.moffat().fwhm(),
-                m.moffat().ellipticity(), m.moffat().beta(), m.moffat().count());
+        if (m.moffat().count() > 0) {
+            out.printf(Locale.ROOT, "moffat fit:   FWHM %.3f px, ellipticity %.3f, beta %.2f, %d stars%n",
+                    m.moffat().fwhm(), m.moffat().ellipticity(), m.moffat().beta(), m.moffat().count());
+        } else {
+            out.println("moffat fit:   did not converge on any star (beta runs to a Gaussian or the stars are faint)");
+        }
         out.printf(Locale.ROOT, "background:   %.6g, noise %.4g%n", m.backgroundLevel(), m.backgroundNoise());
         out.printf(Locale.ROOT, "PSF:          %s%n", m.psfReason());
         if (split != null) {

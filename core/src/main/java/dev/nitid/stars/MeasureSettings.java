@@ -10,7 +10,8 @@ package dev.nitid.stars;
  * @param minSeparation     local maxima closer than this many pixels are merged into the brighter one, ≥ 1
  * @param stampRadius       fitting stamps are (2r+1)² pixels; also the measured PSF's radius, ≥ 3
  * @param saturation        pixel value at or above which a star is saturated (NaN = unknown; a flat top of
- *                          ≥ 3 equal peak pixels still marks a star saturated)
+ *                          ≥ 3 equal peak pixels at or above half the frame's maximum still marks a star
+ *                          saturated)
  * @param sampling          how profiles are compared with pixels (INTEGRATED reports the optical FWHM)
  * @param maxStars          at most this many candidates (brightest first) are fitted, ≥ 1
  * @param blendFraction     a neighbouring detection inside the stamp at least this fraction as bright as the

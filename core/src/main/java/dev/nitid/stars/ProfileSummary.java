@@ -1,13 +1,14 @@
 package dev.nitid.stars;
 
 /**
- * Robust aggregate of one profile shape over the accepted stars: medians, and 1.4826·MAD spreads
- * (Hampel 1974, JASA 69, 383). The angle is the median after aligning axial angles on their doubled-angle
- * mean direction (Mardia &amp; Jupp, Directional Statistics, 2000, §9.3.1: axial data).
+ * Robust aggregate of one profile shape over the accepted stars: weighted medians (each star weighted by
+ * 1/σ² of its fitted FWHM, so faint stars count little; Edgeworth's weighted median), and unweighted
+ * 1.4826·MAD spreads (Hampel 1974, JASA 69, 383). The angle is the weighted median after aligning axial
+ * angles on their doubled-angle mean direction (Mardia &amp; Jupp, Directional Statistics, 2000, §9.3.1).
  *
  * @param shape          profile
  * @param count          stars whose fit of this shape converged
- * @param fwhm           median geometric-mean FWHM √(major·minor), px
+ * @param fwhm           weighted median geometric-mean FWHM √(major·minor), px
  * @param fwhmSpread     1.4826·MAD of the FWHM, px
  * @param fwhmMajor      major FWHM of the median shape, fwhm / √(1 − ellipticity), px
  * @param fwhmMinor      minor FWHM of the median shape, fwhm · √(1 − ellipticity), px

@@ -6,7 +6,10 @@ public enum RejectReason {
     EDGE("edge"),
     /** Masked (NaN) pixels inside its core. */
     MASKED("masked"),
-    /** A core pixel reaches the saturation level, or the peak is a flat top of equal pixels. */
+    /**
+     * A core pixel reaches the saturation level, or the peak is a flat top of ≥ 3 equal pixels at or above half
+     * the frame's maximum.
+     */
     SATURATED("saturated"),
     /** Another detection inside its stamp is at least {@code blendFraction} as bright. */
     BLEND("blend"),

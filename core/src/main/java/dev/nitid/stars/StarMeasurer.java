@@ -41,6 +41,11 @@ public final class StarMeasurer {
             .withTolerances(1e-9, 1e-8);
     /** Half-size of the core box checked for saturation and masked pixels (5×5 core). */
     private static final int CORE = 2;
+    /**
+     * A flat top counts as saturation only at or above this fraction of the frame's brightest pixel: clipped
+     * stars sit at the frame's ceiling, while faint stars in integer data often have a few equal peak values.
+     */
+    private static final double FLAT_TOP_FRACTION = 0.5;
     /** Fewest equal peak pixels that mark a flat (clipped) top. */
     private static final int FLAT_TOP_PIXELS = 3;
 
@@ -166,10 +171,16 @@ public final class StarMeasurer {
         RejectReason[] fate = new RejectReason[cands.size()];
         double[][] where = new double[cands.size()][];
         int skipped = 0;
+        float frameMax = Float.NEGATIVE_INFINITY;
+        for (float v : pixels) {
+            if (v > frameMax) {
+                frameMax = v;
+            }
+        }
         for (int ci = 0; ci < cands.size(); ci++) {
             Candidate c = cands.get(ci);
             where[ci] = new double[] {c.subX(), c.subY()};
-            RejectReason why = cheapReject(c, pixels, resid, width, height, grid, s);
+            RejectReason why = cheapReject(c, pixels, resid, width, height, grid, s, frameMax);
             if (why != null) {
                 rejected.merge(why, 1, Integer::sum);
                 fate[ci] = why;
@@ -563,7 +574,7 @@ public final class StarMeasurer {
     }
 
     private static RejectReason cheapReject(Candidate c, float[] raw, float[] resid, int w, int h,
-                                            CandidateGrid grid, MeasureSettings s) {
+                                            CandidateGrid grid, MeasureSettings s, float frameMax) {
         int r = s.stampRadius();
         int x = c.x();
         int y = c.y();
@@ -597,7 +608,7 @@ public final class StarMeasurer {
                 }
             }
         }
-        if (equal >= FLAT_TOP_PIXELS) {
+        if (equal >= FLAT_TOP_PIXELS && max >= FLAT_TOP_FRACTION * frameMax) {
             return RejectReason.SATURATED;
         }
         if (grid.hasBrightNeighbour(c, r, s.blendFraction())) {
@@ -623,10 +634,10 @@ public final class StarMeasurer {
      * of e = |(e1, e2)| is biased upwards by it (a round PSF measured on faint stars read e ≈ 0.1).
      * Component averaging is common practice in shape measurement (e.g. weak-lensing ellipticities; from
      * memory, no single source). Major and minor follow from the median FWHM = √(major·minor) and
-     * minor/major = 1 − e.
+     * minor/major = 1 − e. Every median is weighted by {@link #weights} (1/σ² of each star's FWHM).
      */
     record MedianShape(double fwhm, double major, double minor, double ellipticity, double angle) {
-        static MedianShape of(List<StarProfile> ps) {
+        static MedianShape of(List<StarProfile> ps, double[] w) {
             int n = ps.size();
             if (n == 0) {
                 return new MedianShape(Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN);
@@ -642,12 +653,12 @@ public final class StarMeasurer {
                 e1[i] = p.ellipticity() * Math.cos(2 * p.angle());
                 e2[i] = p.ellipticity() * Math.sin(2 * p.angle());
             }
-            double m1 = Select.median(e1);
-            double m2 = Select.median(e2);
+            double m1 = Select.weightedMedian(e1, w);
+            double m2 = Select.weightedMedian(e2, w);
             double ell = Math.min(MAX_SUMMARY_ELLIPTICITY, Math.hypot(m1, m2));
             double half = 0.5 * Math.atan2(m2, m1);
-            double angle = ell > 0 ? (half < 0 ? half + Math.PI : half) : axialMedian(an);
-            double fwhm = Select.median(fw);
+            double angle = ell > 0 ? (half < 0 ? half + Math.PI : half) : axialMedian(an, w);
+            double fwhm = Select.weightedMedian(fw, w);
             return new MedianShape(fwhm, fwhm / Math.sqrt(1 - ell), fwhm * Math.sqrt(1 - ell), ell, angle);
         }
     }
@@ -677,30 +688,54 @@ public final class StarMeasurer {
         double[] fw = ps.stream().mapToDouble(StarProfile::fwhm).toArray();
         double[] el = ps.stream().mapToDouble(StarProfile::ellipticity).toArray();
         double[] be = ps.stream().mapToDouble(StarProfile::beta).toArray();
+        double[] w = weights(ps);
         boolean moffat = shape == ProfileShape.MOFFAT;
-        MedianShape ms = MedianShape.of(ps);
+        MedianShape ms = MedianShape.of(ps, w);
         return new ProfileSummary(shape, ps.size(), ms.fwhm(), Select.madSigma(fw), ms.major(), ms.minor(),
-                ms.ellipticity(), Select.madSigma(el), ms.angle(), moffat ? Select.median(be) : Double.NaN,
+                ms.ellipticity(), Select.madSigma(el), ms.angle(), moffat ? Select.weightedMedian(be, w) : Double.NaN,
                 moffat ? Select.madSigma(be) : Double.NaN, bic);
     }
 
-    /** Median of axial angles (period π) around their doubled-angle mean direction, in [0, π). */
-    static double axialMedian(double[] angles) {
+    /**
+     * Each star's weight in the summaries: 1/σ² of its FWHM from the fit, so that faint stars, whose widths
+     * scatter and are biased by noise, count for little (stars without a finite error get the smallest weight
+     * of the others).
+     */
+    static double[] weights(List<StarProfile> ps) {
+        double[] w = new double[ps.size()];
+        double min = Double.POSITIVE_INFINITY;
+        for (int i = 0; i < w.length; i++) {
+            double e = ps.get(i).errors().fwhm();
+            w[i] = e > 0 && Double.isFinite(e) ? 1 / (e * e) : Double.NaN;
+            if (w[i] == w[i]) {
+                min = Math.min(min, w[i]);
+            }
+        }
+        for (int i = 0; i < w.length; i++) {
+            if (w[i] != w[i]) {
+                w[i] = Double.isFinite(min) ? min : 1;
+            }
+        }
+        return w;
+    }
+
+    /** Weighted median of axial angles (period π) around their weighted doubled-angle mean direction, in [0, π). */
+    static double axialMedian(double[] angles, double[] w) {
         if (angles.length == 0) {
             return Double.NaN;
         }
         double sx = 0;
         double sy = 0;
-        for (double a : angles) {
-            sx += Math.cos(2 * a);
-            sy += Math.sin(2 * a);
+        for (int i = 0; i < angles.length; i++) {
+            sx += w[i] * Math.cos(2 * angles[i]);
+            sy += w[i] * Math.sin(2 * angles[i]);
         }
         double mean = 0.5 * Math.atan2(sy, sx);
         double[] d = new double[angles.length];
         for (int i = 0; i < d.length; i++) {
             d[i] = mean + Math.IEEEremainder(angles[i] - mean, Math.PI);
         }
-        double m = Select.median(d) % Math.PI;
+        double m = Select.weightedMedian(d, w) % Math.PI;
         return m < 0 ? m + Math.PI : m;
     }
 
@@ -720,7 +755,7 @@ public final class StarMeasurer {
                 int x1 = (int) ((long) (col + 1) * w / gc);
                 int y0 = (int) ((long) row * h / gr);
                 int y1 = (int) ((long) (row + 1) * h / gr);
-                MedianShape ms = MedianShape.of(ps);
+                MedianShape ms = MedianShape.of(ps, weights(ps));
                 out.add(new RegionSummary(col, row, x0, y0, x1, y1, ps.size(), ms.fwhm(), ms.major(), ms.minor(),
                         ms.ellipticity(), ms.angle()));
             }

@@ -16,7 +16,8 @@ import dev.nitid.stars.fit.Model;
  * Pixel {@code (i, j)} has its centre at {@code x = i, y = j}. With point sampling the model is evaluated
  * at the centre; with integration it is averaged over the pixel square by 2×2-point Gauss–Legendre
  * quadrature (nodes ±1/(2√3), equal weights; Abramowitz &amp; Stegun 1964, 25.4.29 and Table 25.4), exact
- * for cubic polynomials and within 0.1 % of the pixel integral for a FWHM ≥ 2 px.
+ * for cubic polynomials. For a Gaussian its largest error is 0.26 % of the peak at a FWHM of 2 px, 0.11 % at
+ * 2.5 px and 0.05 % at 3 px (compared with the exact erf integral, scipy 1.10.1).
  * Not thread-safe (scratch state); one instance per fit.
  */
 public final class EllipticalProfileModel implements Model {

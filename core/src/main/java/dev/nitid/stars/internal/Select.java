@@ -92,6 +92,43 @@ public final class Select {
         return (n & 1) == 1 ? s[n / 2] : 0.5 * (s[n / 2 - 1] + s[n / 2]);
     }
 
+    /**
+     * Weighted median: the smallest value at which the cumulative weight of the sorted values reaches half the
+     * total, averaged with the next value when it lands exactly on half (Edgeworth 1888; the minimiser of
+     * Σ wᵢ|vᵢ − m|). NaN values or non-positive weights are skipped; NaN when nothing is left.
+     *
+     * @param v values (not modified)
+     * @param w weights, same length (not modified)
+     * @return the weighted median
+     */
+    public static double weightedMedian(double[] v, double[] w) {
+        Integer[] order = new Integer[v.length];
+        int n = 0;
+        double total = 0;
+        for (int i = 0; i < v.length; i++) {
+            if (!Double.isNaN(v[i]) && w[i] > 0 && Double.isFinite(w[i])) {
+                order[n++] = i;
+                total += w[i];
+            }
+        }
+        if (n == 0) {
+            return Double.NaN;
+        }
+        Integer[] idx = java.util.Arrays.copyOf(order, n);
+        java.util.Arrays.sort(idx, (a, b) -> Double.compare(v[a], v[b]));
+        double acc = 0;
+        for (int k = 0; k < n; k++) {
+            acc += w[idx[k]];
+            if (acc > 0.5 * total) {
+                return v[idx[k]];
+            }
+            if (acc == 0.5 * total) {
+                return k + 1 < n ? 0.5 * (v[idx[k]] + v[idx[k + 1]]) : v[idx[k]];
+            }
+        }
+        return v[idx[n - 1]];
+    }
+
     /** 1.4826 × median absolute deviation of a double array (not modified); NaN when empty. */
     public static double madSigma(double[] v) {
         double m = median(v);
