@@ -19,7 +19,7 @@ import dev.nitid.synth.FieldPsf;
 import dev.nitid.synth.FieldSettings;
 import dev.nitid.synth.FluxLaw;
 import dev.nitid.synth.ImagePsf;
-import dev.nitid.synth.ModelPsf;
+import dev.nitid.synth.SyntheticModelPsf;
 import dev.nitid.synth.Placement;
 import dev.nitid.synth.RenderedModelPsf;
 import dev.nitid.synth.StarSettings;
@@ -261,7 +261,7 @@ public final class SimulateCommand implements Callable<Integer> {
             return ImagePsf.of(k, psfFile.getFileName().toString());
         }
         if (!psfOptions.given()) {
-            return ModelPsf.moffat(DEFAULT_FWHM, PsfOptions.DEFAULT_BETA).withGradient(gradient[0], gradient[1]);
+            return SyntheticModelPsf.moffat(DEFAULT_FWHM, PsfOptions.DEFAULT_BETA).withGradient(gradient[0], gradient[1]);
         }
         PsfModel model = psfOptions.toModel();
         int side = psfOptions.side(psfSize, "--psf-size");
@@ -275,8 +275,8 @@ public final class SimulateCommand implements Callable<Integer> {
                         + "without --seeing or --jitter (leave it out, or drop --ellipticity)");
             }
             return model instanceof MoffatPsf m
-                    ? new ModelPsf(ModelPsf.Shape.MOFFAT, m.fwhmMajor(), m.beta(), side, os, gradient[0], gradient[1])
-                    : new ModelPsf(ModelPsf.Shape.GAUSSIAN, ((GaussianPsf) model).fwhmMajor(), 2.5, side, os,
+                    ? new SyntheticModelPsf(SyntheticModelPsf.Shape.MOFFAT, m.fwhmMajor(), m.beta(), side, os, gradient[0], gradient[1])
+                    : new SyntheticModelPsf(SyntheticModelPsf.Shape.GAUSSIAN, ((GaussianPsf) model).fwhmMajor(), 2.5, side, os,
                             gradient[0], gradient[1]);
         }
         if (analytic) {
@@ -356,11 +356,11 @@ public final class SimulateCommand implements Callable<Integer> {
                 .with("NCOMBINE", (long) d.frames(), "frames averaged into the stack")
                 .with("SKYSIGMA", d.skySigma(), "[adu] expected sky noise of the stack");
         h = modelCards(h);
-        if (s.psf() instanceof ModelPsf m) {
+        if (s.psf() instanceof SyntheticModelPsf m) {
             h = h.with("PSFFWHM", m.fwhm(), "[px] PSF FWHM at the field centre")
                     .with("PSFGRADX", m.gradientX(), "FWHM change across the width")
                     .with("PSFGRADY", m.gradientY(), "FWHM change across the height");
-            if (m.shape() == ModelPsf.Shape.MOFFAT) {
+            if (m.shape() == SyntheticModelPsf.Shape.MOFFAT) {
                 h = h.with("PSFBETA", m.beta(), "Moffat power index");
             }
         }

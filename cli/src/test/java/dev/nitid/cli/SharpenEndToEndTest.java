@@ -15,7 +15,7 @@ import dev.nitid.synth.ExtendedSettings;
 import dev.nitid.synth.FieldGenerator;
 import dev.nitid.synth.FieldSettings;
 import dev.nitid.synth.FluxLaw;
-import dev.nitid.synth.ModelPsf;
+import dev.nitid.synth.SyntheticModelPsf;
 import dev.nitid.synth.Placement;
 import dev.nitid.synth.StarSettings;
 import dev.nitid.synth.SyntheticField;
@@ -52,7 +52,7 @@ class SharpenEndToEndTest {
     static void scene() throws Exception {
         field = FieldGenerator.generate(new FieldSettings(256, 256, 31,
                 new StarSettings(49, FluxLaw.UNIFORM_MAGNITUDE, 3e3, 3e5, 1, Placement.GRID, 30),
-                new ExtendedSettings(80, 4, 30, 1.2, 0, 100), ModelPsf.moffat(3.2, 3).withSize(31),
+                new ExtendedSettings(80, 4, 30, 1.2, 0, 100), SyntheticModelPsf.moffat(3.2, 3).withSize(31),
                 new DetectorSettings(200, 1.5, 6, 4, Double.POSITIVE_INFINITY)));
         observed = dir.resolve("field.fits");
         psf = dir.resolve("psf.fits");

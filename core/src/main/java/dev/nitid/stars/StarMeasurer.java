@@ -308,7 +308,7 @@ public final class StarMeasurer {
         Image model = null;
         if (b.count() > 0) {
             double minor = Math.min(b.fwhmMinor(), b.fwhmMajor());
-            model = ModelPsf.render(best, b.fwhmMajor(), minor, b.angle(), b.beta(), R);
+            model = FittedProfilePsf.render(best, b.fwhmMajor(), minor, b.angle(), b.beta(), R);
         }
         double mismatch = emp != null && model != null ? mismatch(emp, model) : Double.NaN;
         PsfSource source;

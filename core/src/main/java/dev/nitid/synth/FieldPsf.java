@@ -6,7 +6,7 @@ import dev.nitid.image.Image;
  * The PSF of a synthetic field: renders the unit-sum image of a point source at any field position and
  * sub-pixel phase onto a square stamp.
  *
- * <p>Implementations: {@link ModelPsf} (an analytic model, optionally varying linearly across the field)
+ * <p>Implementations: {@link SyntheticModelPsf} (an analytic model, optionally varying linearly across the field)
  * and {@link ImagePsf} (a given PSF image, constant, used at whole-pixel positions). Implementations are
  * immutable and thread-safe.
  */

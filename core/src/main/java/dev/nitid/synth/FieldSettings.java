@@ -41,7 +41,7 @@ public record FieldSettings(int width, int height, long seed, StarSettings stars
      */
     public static FieldSettings of(int width, int height, long seed) {
         return new FieldSettings(width, height, seed, StarSettings.defaults(), ExtendedSettings.none(),
-                ModelPsf.moffat(3, 3), DetectorSettings.defaults());
+                SyntheticModelPsf.moffat(3, 3), DetectorSettings.defaults());
     }
 
     /** @return these settings with another seed */

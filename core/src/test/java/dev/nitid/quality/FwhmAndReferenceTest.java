@@ -9,7 +9,7 @@ import dev.nitid.synth.ExtendedSettings;
 import dev.nitid.synth.FieldGenerator;
 import dev.nitid.synth.FieldSettings;
 import dev.nitid.synth.FluxLaw;
-import dev.nitid.synth.ModelPsf;
+import dev.nitid.synth.SyntheticModelPsf;
 import dev.nitid.synth.Placement;
 import dev.nitid.synth.StarSettings;
 import dev.nitid.synth.SyntheticField;
@@ -57,7 +57,7 @@ class FwhmAndReferenceTest {
         // from memory), so the fitted FWHM of a simulated star is 2.3548·√(σ² + 1/12); noise-free field.
         double fwhm = 3.0;
         double sigma = fwhm / 2.354820045;
-        FieldSettings s = FieldSettings.of(200, 200, 4).withPsf(ModelPsf.gaussian(fwhm).withSize(21).withOversample(8))
+        FieldSettings s = FieldSettings.of(200, 200, 4).withPsf(SyntheticModelPsf.gaussian(fwhm).withSize(21).withOversample(8))
                 .withStars(new StarSettings(16, FluxLaw.UNIFORM_MAGNITUDE, 1e4, 1e5, 1, Placement.GRID, 20));
         SyntheticField f = FieldGenerator.generate(s);
         double expected = 2.354820045 * Math.sqrt(sigma * sigma + 1.0 / 12);
@@ -68,7 +68,7 @@ class FwhmAndReferenceTest {
     private static SyntheticField scene() {
         return FieldGenerator.generate(new FieldSettings(300, 300, 99,
                 new StarSettings(36, FluxLaw.UNIFORM_MAGNITUDE, 2e3, 1e6, 1, Placement.GRID, 32),
-                new ExtendedSettings(150, 6, 50, 1.2, 1, 200), ModelPsf.moffat(3.5, 3).withSize(41),
+                new ExtendedSettings(150, 6, 50, 1.2, 1, 200), SyntheticModelPsf.moffat(3.5, 3).withSize(41),
                 new DetectorSettings(150, 1.5, 6, 2, Double.POSITIVE_INFINITY)));
     }
 

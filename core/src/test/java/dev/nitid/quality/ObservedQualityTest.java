@@ -16,7 +16,7 @@ import dev.nitid.synth.ExtendedSettings;
 import dev.nitid.synth.FieldGenerator;
 import dev.nitid.synth.FieldSettings;
 import dev.nitid.synth.FluxLaw;
-import dev.nitid.synth.ModelPsf;
+import dev.nitid.synth.SyntheticModelPsf;
 import dev.nitid.synth.Placement;
 import dev.nitid.synth.StarSettings;
 import dev.nitid.synth.SyntheticField;
@@ -41,7 +41,7 @@ class ObservedQualityTest {
     void agreesWithTheTruthBasedFigures() {
         SyntheticField f = FieldGenerator.generate(new FieldSettings(320, 320, 314,
                 new StarSettings(36, FluxLaw.UNIFORM_MAGNITUDE, 5e3, 5e5, 1, Placement.GRID, 36),
-                new ExtendedSettings(120, 4, 40, 1.2, 1, 100), ModelPsf.moffat(3.5, 3).withSize(41),
+                new ExtendedSettings(120, 4, 40, 1.2, 1, 100), SyntheticModelPsf.moffat(3.5, 3).withSize(41),
                 new DetectorSettings(150, 1.5, 6, 2, Double.POSITIVE_INFINITY)));
         Image restored = Restorers.create(RestoreSettings.defaults().withMethod(Method.RICHARDSON_LUCY)
                 .withIterations(20).withProtection(StarProtection.none()).withThreads(2))
@@ -79,7 +79,7 @@ class ObservedQualityTest {
         // chunked sky passes, parallel smoothing, selection and per-star fits must give the same bits.
         SyntheticField f = FieldGenerator.generate(new FieldSettings(300, 280, 99,
                 new StarSettings(30, FluxLaw.UNIFORM_MAGNITUDE, 5e3, 5e5, 1, Placement.GRID, 36),
-                new ExtendedSettings(80, 4, 30, 1.2, 1, 100), ModelPsf.moffat(3.5, 3).withSize(41),
+                new ExtendedSettings(80, 4, 30, 1.2, 1, 100), SyntheticModelPsf.moffat(3.5, 3).withSize(41),
                 new DetectorSettings(150, 1.5, 6, 2, Double.POSITIVE_INFINITY)));
         StarMeasurement m = StarMeasurer.measure(f.observed(), MeasureSettings.defaults());
         Image other = Image.wrap(300, 280, dev.nitid.quality.internal.GaussianSmoothing.smooth(
@@ -102,7 +102,7 @@ class ObservedQualityTest {
         double level = 30000;
         SyntheticField f = FieldGenerator.generate(new FieldSettings(256, 256, 5,
                 new StarSettings(16, FluxLaw.UNIFORM_MAGNITUDE, 2e4, 3e6, 1, Placement.GRID, 36),
-                ExtendedSettings.none(), ModelPsf.moffat(3.5, 3).withSize(41),
+                ExtendedSettings.none(), SyntheticModelPsf.moffat(3.5, 3).withSize(41),
                 new DetectorSettings(150, 1.5, 6, 2, level)));
         List<TruthStar> sat = f.catalogue().stream().filter(TruthStar::saturated).toList();
         assertTrue(!sat.isEmpty() && sat.size() < f.catalogue().size(), "some stars saturate: " + sat.size());

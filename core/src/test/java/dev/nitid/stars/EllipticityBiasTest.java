@@ -22,7 +22,7 @@ class EllipticityBiasTest {
     /** The accuracy for ellipticity on synthetic fields (project target, no source). */
     private static final double ELLIPTICITY_TOL = 0.02;
 
-    private static StarMeasurement measure(dev.nitid.synth.ModelPsf psf) {
+    private static StarMeasurement measure(dev.nitid.synth.SyntheticModelPsf psf) {
         SyntheticField f = FieldGenerator.generate(new FieldSettings(500, 500, 17,
                 new StarSettings(250, FluxLaw.POWER_LAW, 300, 2e5, 1, Placement.RANDOM, 12),
                 ExtendedSettings.none(), psf, new DetectorSettings(300, 1, 4, 4, Double.POSITIVE_INFINITY)));
@@ -31,7 +31,7 @@ class EllipticityBiasTest {
 
     @Test
     void roundPsfOnFaintStarsReadsRound() {
-        StarMeasurement m = measure(dev.nitid.synth.ModelPsf.moffat(3.4, 3).withSize(41));
+        StarMeasurement m = measure(dev.nitid.synth.SyntheticModelPsf.moffat(3.4, 3).withSize(41));
         assertTrue(m.stars().size() >= 50, "stars measured: " + m.stars().size());
         assertTrue(m.best().ellipticity() < ELLIPTICITY_TOL, "ellipticity " + m.best().ellipticity());
         assertEquals(m.best().fwhm(), Math.sqrt(m.best().fwhmMajor() * m.best().fwhmMinor()), 1e-9,

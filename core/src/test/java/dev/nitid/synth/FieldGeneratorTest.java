@@ -61,7 +61,7 @@ class FieldGeneratorTest {
     void truthCatalogueFluxesMatchApertureSums() {
         // Common practice, no source: the truth image holds each star's flux at its pixel, and the noise-free
         // observed image holds the same flux spread by a unit-sum PSF. Grid placement keeps stars apart.
-        ModelPsf psf = ModelPsf.moffat(3.5, 3.0).withSize(25);
+        SyntheticModelPsf psf = SyntheticModelPsf.moffat(3.5, 3.0).withSize(25);
         FieldSettings s = FieldSettings.of(300, 260, 11).withPsf(psf)
                 .withStars(StarSettings.defaults().withCount(60).withPlacement(Placement.GRID).withMargin(14))
                 .withDetector(DetectorSettings.defaults().withSky(50));
@@ -92,7 +92,7 @@ class FieldGeneratorTest {
     void moffatWidthFollowsTheReferenceFwhm() {
         // Reference constants.csv: Moffat α = 2, β = 2.5 has FWHM 2.26100123228 (astropy 5.2.1 Moffat2D.fwhm),
         // so at r = α the profile is 2^(−β) of its peak. Point sampling (oversample 1) reads the profile itself.
-        ModelPsf m = new ModelPsf(ModelPsf.Shape.MOFFAT, 2.26100123228, 2.5, 11, 1, 0, 0);
+        SyntheticModelPsf m = new SyntheticModelPsf(SyntheticModelPsf.Shape.MOFFAT, 2.26100123228, 2.5, 11, 1, 0, 0);
         float[] k = m.centre().plane(0);
         double ratio = k[5 * 11 + 7] / (double) k[5 * 11 + 5];
         assertEquals(Math.pow(2, -2.5), ratio, 1e-6, "I(α)/I(0)");
@@ -104,7 +104,7 @@ class FieldGeneratorTest {
         // Sheppard 1898, Proc. London Math. Soc. 29, 353 — from memory). Oversample 16: midpoint-rule error ~1e-4.
         double fwhm = 4.0;
         double sigma = fwhm / 2.354820045;
-        ModelPsf g = new ModelPsf(ModelPsf.Shape.GAUSSIAN, fwhm, 2.5, 31, 16, 0, 0);
+        SyntheticModelPsf g = new SyntheticModelPsf(SyntheticModelPsf.Shape.GAUSSIAN, fwhm, 2.5, 31, 16, 0, 0);
         float[] k = g.centre().plane(0);
         double m2 = 0;
         double sum = 0;
@@ -120,7 +120,7 @@ class FieldGeneratorTest {
 
     @Test
     void psfWidthVariesLinearlyAcrossTheField() {
-        ModelPsf g = ModelPsf.gaussian(3).withSize(31).withGradient(0.4, 0);
+        SyntheticModelPsf g = SyntheticModelPsf.gaussian(3).withSize(31).withGradient(0.4, 0);
         float[] left = new float[31 * 31];
         float[] right = new float[31 * 31];
         g.render(-0.5, 0, 0, 0, left);
@@ -147,7 +147,7 @@ class FieldGeneratorTest {
         int w = 48 + rnd.nextInt(24);
         int h = 40 + rnd.nextInt(24);
         int k = 2 * (3 + rnd.nextInt(3)) + 1;
-        Image kernel = ModelPsf.gaussian(1.5 + rnd.nextDouble() * 2).withSize(k).centre();
+        Image kernel = SyntheticModelPsf.gaussian(1.5 + rnd.nextDouble() * 2).withSize(k).centre();
         FieldSettings s = new FieldSettings(w, h, seed,
                 new StarSettings(10 + rnd.nextInt(20), FluxLaw.POWER_LAW, 100, 1e5, 1, Placement.RANDOM, 0),
                 new ExtendedSettings(40, 2, 30, 1.2, 1, 60), ImagePsf.of(kernel, "test"),
@@ -219,7 +219,7 @@ class FieldGeneratorTest {
         double fmin = 10;
         double fmax = 1e5;
         double gamma = 0.8;
-        FieldSettings s = FieldSettings.of(200, 200, 5).withPsf(ModelPsf.gaussian(1).withSize(3).withOversample(1))
+        FieldSettings s = FieldSettings.of(200, 200, 5).withPsf(SyntheticModelPsf.gaussian(1).withSize(3).withOversample(1))
                 .withStars(new StarSettings(n, FluxLaw.POWER_LAW, fmin, fmax, gamma, Placement.RANDOM, 0));
         List<TruthStar> cat = FieldGenerator.generate(s).catalogue();
         for (double q : new double[] {20, 100, 1000, 1e4}) {
@@ -233,7 +233,7 @@ class FieldGeneratorTest {
 
     @Test
     void imagePsfPutsStarsOnPixelCentres() {
-        Image k = ModelPsf.gaussian(2).withSize(9).centre();
+        Image k = SyntheticModelPsf.gaussian(2).withSize(9).centre();
         FieldSettings s = FieldSettings.of(64, 64, 1).withPsf(ImagePsf.of(k, "test"))
                 .withStars(StarSettings.defaults().withCount(10));
         for (TruthStar t : FieldGenerator.generate(s).catalogue()) {
@@ -246,7 +246,7 @@ class FieldGeneratorTest {
     void anyPsfModelDrivesTheFieldLikeTheBuiltInModel() {
         // The built-in Moffat delegates to the psf package; wrapping the same model directly must give the
         // same pixels, star for star (both follow the psf package's rendering rule).
-        FieldSettings s = FieldSettings.of(80, 80, 12).withPsf(ModelPsf.moffat(3, 3).withSize(25))
+        FieldSettings s = FieldSettings.of(80, 80, 12).withPsf(SyntheticModelPsf.moffat(3, 3).withSize(25))
                 .withStars(StarSettings.defaults().withCount(8));
         SyntheticField a = FieldGenerator.generate(s);
         SyntheticField b = FieldGenerator.generate(
@@ -259,8 +259,8 @@ class FieldGeneratorTest {
     void rejectsBadSettingsWithTheFix() {
         var e = assertThrows(IllegalArgumentException.class, () -> new DetectorSettings(100, 0, 5, 1, 1e9));
         assertTrue(e.getMessage().contains("gain is 0"), e.getMessage());
-        assertThrows(IllegalArgumentException.class, () -> ModelPsf.moffat(3, 1.0));
-        assertThrows(IllegalArgumentException.class, () -> ModelPsf.gaussian(3).withSize(10));
+        assertThrows(IllegalArgumentException.class, () -> SyntheticModelPsf.moffat(3, 1.0));
+        assertThrows(IllegalArgumentException.class, () -> SyntheticModelPsf.gaussian(3).withSize(10));
         assertThrows(IllegalArgumentException.class, () -> FieldSettings.of(10, 10, 1)
                 .withStars(StarSettings.defaults().withMargin(6)));
     }

@@ -12,7 +12,7 @@ import dev.nitid.synth.ExtendedSettings;
 import dev.nitid.synth.FieldGenerator;
 import dev.nitid.synth.FieldSettings;
 import dev.nitid.synth.FluxLaw;
-import dev.nitid.synth.ModelPsf;
+import dev.nitid.synth.SyntheticModelPsf;
 import dev.nitid.synth.Placement;
 import dev.nitid.synth.StarSettings;
 import dev.nitid.synth.SyntheticField;
@@ -63,7 +63,7 @@ public class ObservedQualityBenchmark {
     public void setup() {
         SyntheticField f = FieldGenerator.generate(new FieldSettings(width, height, 24,
                 new StarSettings(2000, FluxLaw.UNIFORM_MAGNITUDE, 5e3, 5e5, 1, Placement.RANDOM, 40),
-                new ExtendedSettings(60, 6, 20, 3, 4, 80), ModelPsf.moffat(3.5, 3).withSize(41),
+                new ExtendedSettings(60, 6, 20, 3, 4, 80), SyntheticModelPsf.moffat(3.5, 3).withSize(41),
                 new DetectorSettings(150, 1.5, 6, 4, Double.POSITIVE_INFINITY)));
         observed = f.observed();
         stars = StarMeasurer.measure(observed, MeasureSettings.defaults().withThreads(threads));

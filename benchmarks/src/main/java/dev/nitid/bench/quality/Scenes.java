@@ -6,7 +6,7 @@ import dev.nitid.synth.ExtendedSettings;
 import dev.nitid.synth.FieldSettings;
 import dev.nitid.synth.FluxLaw;
 import dev.nitid.synth.ImagePsf;
-import dev.nitid.synth.ModelPsf;
+import dev.nitid.synth.SyntheticModelPsf;
 import dev.nitid.synth.Placement;
 import dev.nitid.synth.StarSettings;
 
@@ -42,7 +42,7 @@ public final class Scenes {
     /** @return seeing-limited: Moffat FWHM 4 px, β 3 (an invented night of average seeing) */
     public static FieldSettings seeing() {
         return new FieldSettings(SIZE, SIZE, 20261201L, stars(), extended(),
-                ModelPsf.moffat(4.0, 3.0).withSize(63), detector());
+                SyntheticModelPsf.moffat(4.0, 3.0).withSize(63), detector());
     }
 
     /**

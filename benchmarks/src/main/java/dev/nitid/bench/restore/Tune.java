@@ -16,7 +16,7 @@ import dev.nitid.synth.FieldGenerator;
 import dev.nitid.synth.FieldSettings;
 import dev.nitid.synth.FluxLaw;
 import dev.nitid.synth.ImagePsf;
-import dev.nitid.synth.ModelPsf;
+import dev.nitid.synth.SyntheticModelPsf;
 import dev.nitid.synth.Placement;
 import dev.nitid.synth.StarSettings;
 import dev.nitid.synth.SyntheticField;
@@ -38,7 +38,7 @@ public final class Tune {
         ExtendedSettings ext = new ExtendedSettings(200, 14, 60, 1.2, 3, 300);
         DetectorSettings det = new DetectorSettings(200, 1.5, 6, 4, Double.POSITIVE_INFINITY);
         if (name.equals("seeing")) {
-            return new FieldSettings(512, 512, 20261201L, stars, ext, ModelPsf.moffat(4.0, 3.0).withSize(63), det);
+            return new FieldSettings(512, 512, 20261201L, stars, ext, SyntheticModelPsf.moffat(4.0, 3.0).withSize(63), det);
         }
         PupilPsf pupil = PupilPsf.ofSampling(1 / 2.4, 550).withObstruction(0.33).withVanes(4, 0.015 * 100, 0);
         return new FieldSettings(512, 512, 20261202L, stars, ext,

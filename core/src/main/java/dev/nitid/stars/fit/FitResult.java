@@ -13,7 +13,7 @@ package dev.nitid.stars.fit;
  * @param reason      why it stopped
  */
 public record FitResult(double[] params, double[] sigmas, double[] covariance, double chi2, int dof,
-                        int iterations, boolean converged, StopReason reason) {
+                        int iterations, boolean converged, FitStopReason reason) {
 
     /** @return χ²/dof, or NaN when dof ≤ 0 */
     public double reducedChi2() {

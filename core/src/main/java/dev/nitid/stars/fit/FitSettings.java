@@ -7,7 +7,7 @@ package dev.nitid.stars.fit;
  * @param initialLambda   starting damping λ (Marquardt 1963 suggests 0.01), &gt; 0
  * @param lambdaUp        factor applied to λ after a rejected step, &gt; 1
  * @param lambdaDown      divisor applied to λ after an accepted step, &gt; 1
- * @param maxLambda       damping at which the fit gives up (see {@link StopReason#LAMBDA_LIMIT}), &gt; initialLambda
+ * @param maxLambda       damping at which the fit gives up (see {@link FitStopReason#LAMBDA_LIMIT}), &gt; initialLambda
  * @param chi2Tolerance   stop when an accepted step lowers χ² by less than this fraction, ≥ 0
  * @param stepTolerance   stop when every |δp_k| ≤ stepTolerance·(|p_k| + stepTolerance), ≥ 0
  * @param covariance      how the covariance is scaled

@@ -96,7 +96,7 @@ public final class LevenbergMarquardt {
         double[] nanCov = new double[p * p];
         Arrays.fill(nanCov, Double.NaN);
         if (used < p) {
-            return new FitResult(x, nanSigmas, nanCov, Double.NaN, used - p, 0, false, StopReason.TOO_FEW_POINTS);
+            return new FitResult(x, nanSigmas, nanCov, Double.NaN, used - p, 0, false, FitStopReason.TOO_FEW_POINTS);
         }
 
         double[] f = new double[n];
@@ -111,21 +111,21 @@ public final class LevenbergMarquardt {
         LinearSolverDense<DMatrixRMaj> solver = LinearSolverFactory_DDRM.symmPosDef(p);
 
         if (!model.isValid(x)) {
-            return new FitResult(x, nanSigmas, nanCov, Double.NaN, used - p, 0, false, StopReason.INVALID_START);
+            return new FitResult(x, nanSigmas, nanCov, Double.NaN, used - p, 0, false, FitStopReason.INVALID_START);
         }
         model.evaluate(x, f, jac);
         double chi2 = chi2(data, f, w);
         if (!Double.isFinite(chi2)) {
-            return new FitResult(x, nanSigmas, nanCov, chi2, used - p, 0, false, StopReason.INVALID_START);
+            return new FitResult(x, nanSigmas, nanCov, chi2, used - p, 0, false, FitStopReason.INVALID_START);
         }
         double lambda = settings.initialLambda();
         int iterations = 0;
-        StopReason reason = StopReason.MAX_ITERATIONS;
+        FitStopReason reason = FitStopReason.MAX_ITERATIONS;
         boolean needNormal = true;
         outer:
         while (iterations < settings.maxIterations()) {
             if (chi2 == 0) {
-                reason = StopReason.EXACT_FIT;
+                reason = FitStopReason.EXACT_FIT;
                 break;
             }
             if (needNormal) {
@@ -161,7 +161,7 @@ public final class LevenbergMarquardt {
             if (!stepOk) {
                 lambda *= settings.lambdaUp();
                 if (lambda > settings.maxLambda()) {
-                    reason = StopReason.LAMBDA_LIMIT;
+                    reason = FitStopReason.LAMBDA_LIMIT;
                     break;
                 }
                 continue;
@@ -185,18 +185,18 @@ public final class LevenbergMarquardt {
             needNormal = true;
             lambda = Math.max(lambda / settings.lambdaDown(), 1e-300);
             if (decrease <= settings.chi2Tolerance() * chi2) {
-                reason = StopReason.CHI2_CONVERGED;
+                reason = FitStopReason.CHI2_CONVERGED;
                 break outer;
             }
             if (smallStep) {
-                reason = StopReason.STEP_CONVERGED;
+                reason = FitStopReason.STEP_CONVERGED;
                 break outer;
             }
         }
         normalEquations(data, f, jac, w, p, alpha, beta);
-        boolean converged = reason == StopReason.CHI2_CONVERGED || reason == StopReason.STEP_CONVERGED
-                || reason == StopReason.EXACT_FIT;
-        if (reason == StopReason.LAMBDA_LIMIT) {
+        boolean converged = reason == FitStopReason.CHI2_CONVERGED || reason == FitStopReason.STEP_CONVERGED
+                || reason == FitStopReason.EXACT_FIT;
+        if (reason == FitStopReason.LAMBDA_LIMIT) {
             // No downhill step exists at any damping: a minimum if the gradient JᵀW r is negligible
             // against the curvature (scale-free test: δ-Newton step tiny relative to the parameters).
             converged = newtonStepNegligible(alpha, beta, x, settings, solver);

@@ -186,7 +186,7 @@ class LevenbergMarquardtTest {
         double[] y = {1, Double.NaN};
         FitResult r = LevenbergMarquardt.fit(new Line(x), new double[] {0, 0}, y);
         assertFalse(r.converged());
-        assertEquals(StopReason.TOO_FEW_POINTS, r.reason());
+        assertEquals(FitStopReason.TOO_FEW_POINTS, r.reason());
     }
 
     @Test

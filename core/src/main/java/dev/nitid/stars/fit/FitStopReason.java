@@ -1,7 +1,7 @@
 package dev.nitid.stars.fit;
 
 /** Why a {@link LevenbergMarquardt} fit stopped. */
-public enum StopReason {
+public enum FitStopReason {
     /** The relative decrease of χ² in an accepted step fell below {@link FitSettings#chi2Tolerance()}. */
     CHI2_CONVERGED,
     /** Every parameter step fell below {@link FitSettings#stepTolerance()} relative to the parameter. */

@@ -10,8 +10,8 @@ import dev.nitid.psf.PsfModel;
  * project's PSF models ({@link GaussianPsf}, {@link MoffatPsf}): odd size, centred on the middle pixel
  * ({@code (⌊w/2⌋, ⌊h/2⌋)}), pixel-integrated by {@value PsfModel#DEFAULT_OVERSAMPLE}² sub-pixels, sum 1.
  */
-public final class ModelPsf {
-    private ModelPsf() {
+public final class FittedProfilePsf {
+    private FittedProfilePsf() {
     }
 
     /**

@@ -17,7 +17,7 @@ import dev.nitid.synth.internal.AnalyticProfiles;
  * @param gradientX  fractional FWHM change across the full width
  * @param gradientY  fractional FWHM change across the full height
  */
-public record ModelPsf(Shape shape, double fwhm, double beta, int size, int oversample,
+public record SyntheticModelPsf(Shape shape, double fwhm, double beta, int size, int oversample,
                        double gradientX, double gradientY) implements FieldPsf {
 
     /** Analytic profiles. */
@@ -29,7 +29,7 @@ public record ModelPsf(Shape shape, double fwhm, double beta, int size, int over
     }
 
     /** Validates the model. */
-    public ModelPsf {
+    public SyntheticModelPsf {
         if (shape == null) {
             throw new IllegalArgumentException("PSF shape is null: choose GAUSSIAN or MOFFAT");
         }
@@ -59,8 +59,8 @@ public record ModelPsf(Shape shape, double fwhm, double beta, int size, int over
      * @param beta power index
      * @return the model
      */
-    public static ModelPsf moffat(double fwhm, double beta) {
-        return new ModelPsf(Shape.MOFFAT, fwhm, beta, defaultSize(fwhm, 8), 5, 0, 0);
+    public static SyntheticModelPsf moffat(double fwhm, double beta) {
+        return new SyntheticModelPsf(Shape.MOFFAT, fwhm, beta, defaultSize(fwhm, 8), 5, 0, 0);
     }
 
     /**
@@ -69,8 +69,8 @@ public record ModelPsf(Shape shape, double fwhm, double beta, int size, int over
      * @param fwhm FWHM in pixels
      * @return the model
      */
-    public static ModelPsf gaussian(double fwhm) {
-        return new ModelPsf(Shape.GAUSSIAN, fwhm, 2.5, defaultSize(fwhm, 4), 5, 0, 0);
+    public static SyntheticModelPsf gaussian(double fwhm) {
+        return new SyntheticModelPsf(Shape.GAUSSIAN, fwhm, 2.5, defaultSize(fwhm, 4), 5, 0, 0);
     }
 
     private static int defaultSize(double fwhm, double widths) {
@@ -79,18 +79,18 @@ public record ModelPsf(Shape shape, double fwhm, double beta, int size, int over
     }
 
     /** @return this model with another stamp size */
-    public ModelPsf withSize(int s) {
-        return new ModelPsf(shape, fwhm, beta, s, oversample, gradientX, gradientY);
+    public SyntheticModelPsf withSize(int s) {
+        return new SyntheticModelPsf(shape, fwhm, beta, s, oversample, gradientX, gradientY);
     }
 
     /** @return this model with another oversampling */
-    public ModelPsf withOversample(int o) {
-        return new ModelPsf(shape, fwhm, beta, size, o, gradientX, gradientY);
+    public SyntheticModelPsf withOversample(int o) {
+        return new SyntheticModelPsf(shape, fwhm, beta, size, o, gradientX, gradientY);
     }
 
     /** @return this model with a linear FWHM variation across the field */
-    public ModelPsf withGradient(double gx, double gy) {
-        return new ModelPsf(shape, fwhm, beta, size, oversample, gx, gy);
+    public SyntheticModelPsf withGradient(double gx, double gy) {
+        return new SyntheticModelPsf(shape, fwhm, beta, size, oversample, gx, gy);
     }
 
     @Override
