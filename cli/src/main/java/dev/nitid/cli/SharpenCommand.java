@@ -560,6 +560,7 @@ public final class SharpenCommand implements Callable<Integer> {
             case ACCELERATED_RL -> "accelerated Richardson-Lucy";
             case RICHARDSON_LUCY -> "Richardson-Lucy";
             case TV_RL -> "TV-regularised Richardson-Lucy";
+            case ACCELERATED_TV_RL -> "accelerated TV-regularised Richardson-Lucy";
             case DAMPED_RL -> "damped Richardson-Lucy";
             case WIENER -> "Wiener filter";
             case TIKHONOV -> "Tikhonov filter";

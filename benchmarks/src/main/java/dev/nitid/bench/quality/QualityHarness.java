@@ -6,6 +6,7 @@ import dev.nitid.restore.RestorationResult;
 import dev.nitid.restore.RestoreSettings;
 import dev.nitid.restore.Restorers;
 import dev.nitid.restore.StarProtection;
+import dev.nitid.restore.Stopping;
 import dev.nitid.quality.QualityReference;
 import dev.nitid.quality.QualityReport;
 import dev.nitid.quality.QualitySettings;
@@ -52,10 +53,13 @@ public final class QualityHarness {
         m.add(new Entry("plain RL, 30 it, sky floor", plain.withProtection(StarProtection.skyFloor())));
         m.add(new Entry("plain RL, 30 it, ring floor", plain.withProtection(StarProtection.ringFloor())));
         m.add(new Entry("defaults (" + describe(d) + ")", d));
-        m.add(new Entry("accelerated RL, " + describe(d.withMethod(Method.ACCELERATED_RL)).replaceFirst("^[^,]*, ", ""),
-                d.withMethod(Method.ACCELERATED_RL)));
-        m.add(new Entry("TV-RL, " + describe(d).replaceFirst("^[^,]*, ", ""), d.withMethod(Method.TV_RL)));
-        m.add(new Entry("damped RL, " + describe(d).replaceFirst("^[^,]*, ", ""), d.withMethod(Method.DAMPED_RL)));
+        // the other iterative methods with the previous default rule (χ²/N = 1, cap 100), for comparison
+        RestoreSettings chi1 = d.withStopping(Stopping.chiSquare());
+        m.add(new Entry("accelerated RL, " + describe(chi1.withMethod(Method.ACCELERATED_RL)).replaceFirst("^[^,]*, ", ""),
+                chi1.withMethod(Method.ACCELERATED_RL)));
+        m.add(new Entry("TV-RL, " + describe(chi1).replaceFirst("^[^,]*, ", "") + " (previous default)",
+                chi1.withMethod(Method.TV_RL)));
+        m.add(new Entry("damped RL, " + describe(chi1).replaceFirst("^[^,]*, ", ""), chi1.withMethod(Method.DAMPED_RL)));
         m.add(new Entry("Wiener (K estimated)", d.withMethod(Method.WIENER)));
         m.add(new Entry("Tikhonov", d.withMethod(Method.TIKHONOV)));
         return m;
@@ -167,7 +171,8 @@ public final class QualityHarness {
     /** @return "method, stopping rule, star guard" of a setting, so that the table labels follow the defaults */
     static String describe(RestoreSettings s) {
         return s.method().name().toLowerCase(Locale.ROOT).replace('_', '-') + ", "
-                + s.stopping().rule().name().toLowerCase(Locale.ROOT).replace('_', ' ') + ", guard "
+                + s.stopping().rule().name().toLowerCase(Locale.ROOT).replace('_', ' ')
+                + String.format(Locale.ROOT, " %s, cap %d", s.stopping().threshold(), s.stopping().maxIterations()) + ", guard "
                 + s.protection().guard().name().toLowerCase(Locale.ROOT).replace('_', ' ');
     }
 
