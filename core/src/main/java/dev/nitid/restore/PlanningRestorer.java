@@ -97,9 +97,10 @@ final class PlanningRestorer implements Restorer {
                     // The discrepancy of the χ² rule is taken where the restoration has work to do: on the
                     // discs of the protected stars, else where the model lies SIGNAL_SIGMA above the sky. On a
                     // sparse field or under a smooth nebula, the sky alone would satisfy it at once.
+                    boolean[] discs = starDiscs(floor, plan.gridWidth() * plan.gridHeight());
                     RlPlan.Params params = new RlPlan.Params(m, noise.offset(), noise.gain(), settings.tvWeight(),
                             sigma > 0 ? TV_EPSILON_SIGMA * sigma : tiny, settings.dampingSigma(), sky + SIGNAL_SIGMA * sigma,
-                            starDiscs(floor, plan.gridWidth() * plan.gridHeight()));
+                            discs, starCores(floor, plan.gridWidth() * plan.gridHeight()));
                     long setup = System.nanoTime() - t0;
                     RlPlan.Outcome oc = plan.run(d, valid, floor, true, out.plane(p), params,
                             RlPlan.Conventions.standard(tiny), settings.stopping(), p, listener, cancelled);
@@ -161,6 +162,21 @@ final class PlanningRestorer implements Restorer {
             mask[i] = true;
         }
         return n >= RlPlan.MIN_SIGNAL_PIXELS ? mask : null;
+    }
+
+    /**
+     * The grid pixels of the protected stars' cores (r &lt; 1.5 px), where the extrapolation's α is measured,
+     * or null without protected stars (α then uses every pixel).
+     */
+    static boolean[] starCores(StarFloor.Floor floor, int gridPixels) {
+        if (floor == null || floor.starGroups() == null || floor.stars() == 0) {
+            return null;
+        }
+        boolean[] mask = new boolean[gridPixels];
+        for (int i : floor.coreIndices()) {
+            mask[i] = true;
+        }
+        return mask;
     }
 
     static NoiseModel estimate(double sky, double sigma) {

@@ -57,28 +57,21 @@ public record Stopping(StopRule rule, int maxIterations, double threshold, doubl
 
     /**
      * Cap of {@link #accelerated()} (project choice, measured; docs/restore.md). On the 24-megapixel
-     * seeing-limited test frame, where neither form reaches the χ² target, the default
-     * {@link Method#ACCELERATED_TV_RL} gave a star FWHM ratio of 0.638 after 35 iterations, 0.615 after 50
-     * and 0.605 after 60, against 0.591 for TV-RL after 100 and 0.655 after 50 (2000² crop); 50 keeps the
-     * ratio within 0.03 of the previous default at half its iterations. On the quality harness's seeing scene
-     * 50 iterations give 0.52 against TV-RL's 0.518 after 100.
+     * seeing-limited test frame, where χ²/N never reaches 1, the default {@link Method#ACCELERATED_TV_RL} gave a
+     * star FWHM ratio of 0.631 after 35 iterations and 0.607 after 45, against 0.59 for TV-RL after 100
+     * (the previous default); 45 keeps the ratio within 0.03 of it at under half the iterations. On the
+     * quality harness's seeing scene 45 iterations give 0.528 against TV-RL's 0.518 after 100.
      */
-    public static final int ACCELERATED_CAP = 50;
-    /**
-     * χ²/N target of {@link #accelerated()}. With extrapolation the χ² of the diffraction scene fell through 1
-     * after 18 iterations while the dark rings of the fast early phase were still 2 σ deep; at 0.9 it stopped
-     * after 32 with the rings at 0.57 σ (project choice, measured; docs/restore.md).
-     */
-    public static final double ACCELERATED_CHI_SQUARE = 0.9;
+    public static final int ACCELERATED_CAP = 45;
 
     /**
-     * The rule of the default accelerated restoration: χ²/N reaches {@value #ACCELERATED_CHI_SQUARE} (or
-     * the estimate stalls), at most {@value #ACCELERATED_CAP} iterations.
+     * The rule of the default accelerated restoration: χ²/N reaches 1 (or the estimate stalls), at most
+     * {@value #ACCELERATED_CAP} iterations.
      *
      * @return the rule
      */
     public static Stopping accelerated() {
-        return new Stopping(StopRule.CHI_SQUARE, ACCELERATED_CAP, ACCELERATED_CHI_SQUARE, DEFAULT_MIN_CHANGE, true);
+        return new Stopping(StopRule.CHI_SQUARE, ACCELERATED_CAP, 1.0, DEFAULT_MIN_CHANGE, true);
     }
 
     /** @return stop when the likelihood gain per pixel falls below {@code gain}, at most {@link #DEFAULT_CAP} */

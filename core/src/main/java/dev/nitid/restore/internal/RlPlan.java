@@ -70,15 +70,16 @@ public final class RlPlan implements AutoCloseable {
      *                     every valid pixel. When fewer than {@link #MIN_SIGNAL_PIXELS} pixels qualify,
      *                     every valid pixel counts.
      * @param signalMask   grid pixels the χ² counts instead of the signal level (e.g. the discs around the
-     *                     protected stars), or null (input, not modified); the accelerated methods also
-     *                     take their α over these pixels only (all pixels when null)
+     *                     protected stars), or null (input, not modified)
+     * @param alphaMask    grid pixels over which the accelerated methods take their α, or null for every
+     *                     pixel (input, not modified)
      */
     public record Params(Method method, double offset, double gain, double tvWeight, double tvEpsilon,
-                         double dampingSigma, double signalLevel, boolean[] signalMask) {
+                         double dampingSigma, double signalLevel, boolean[] signalMask, boolean[] alphaMask) {
         /** Parameters whose χ² counts every valid pixel. */
         public Params(Method method, double offset, double gain, double tvWeight, double tvEpsilon,
                       double dampingSigma) {
-            this(method, offset, gain, tvWeight, tvEpsilon, dampingSigma, Double.NaN, null);
+            this(method, offset, gain, tvWeight, tvEpsilon, dampingSigma, Double.NaN, null, null);
         }
     }
 
@@ -374,9 +375,10 @@ public final class RlPlan implements AutoCloseable {
                 if (acc) {
                     // x_{k+1} = y · Kᵀ(...) / s replaces y; g_k = x_{k+1} − y; x_k stays for the next prediction
                     final float[] gb = gBuf;
-                    // α is measured where the restoration converges, the protected stars' discs: on the sky
-                    // the TV term makes successive changes nearly uncorrelated, which drove α to 0 there
-                    final boolean[] am = p.signalMask();
+                    // α is measured where the restoration converges, the protected stars' cores: on the sky
+                    // the TV term makes successive changes anti-correlated (α < 0, a restart every other
+                    // step), and over the whole discs α still decayed to 0.1 within 35 iterations
+                    final boolean[] am = p.alphaMask();
                     passes.run((blk, from, to) -> {
                         double num = 0;
                         double den = 0;
@@ -468,12 +470,13 @@ public final class RlPlan implements AutoCloseable {
     /** Largest extrapolation factor of the accelerated form (Biggs &amp; Andrews clip α below 1). */
     public static final double ACCEL_MAX = 0.999;
     /**
-     * Largest extrapolation factor of {@link Method#ACCELERATED_TV_RL} (project choice, measured): with 0.999
-     * the unit-test Moffat field ({@code StarProtectionTest}) grew a dark ring of 1.9 σ beside the cores after
-     * 35 iterations and 5 σ after 60; at 0.8 it stayed at 0.36 σ to 35 iterations, at 0.7 to 60. The
-     * harness scenes, where α is taken over the stars' discs, hardly reach it (docs/restore.md).
+     * Largest extrapolation factor of {@link Method#ACCELERATED_TV_RL} (project choice, measured; docs/restore.md).
+     * With α taken over the stars' cores, 0.7 gave dark rings of 2.1 σ beside the brightest stars of the
+     * 24-megapixel test frame after 35 iterations (1.7 σ for TV-RL after 100); 0.5 gave 1.3 σ after 45 with
+     * the same sharpening. Without the stars' mask, on the unit-test Moffat field, 0.999 deepened a ring beside
+     * the cores to 1.9 σ after 35 iterations and 5 σ after 60.
      */
-    public static final double ACCEL_MAX_TV = 0.7;
+    public static final double ACCEL_MAX_TV = 0.5;
 
     /** @return true for the methods that extrapolate (Biggs &amp; Andrews 1997) */
     private static boolean accelerated(Method m) {
