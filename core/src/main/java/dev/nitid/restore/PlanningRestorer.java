@@ -100,7 +100,7 @@ final class PlanningRestorer implements Restorer {
                     boolean[] discs = starDiscs(floor, plan.gridWidth() * plan.gridHeight());
                     RlPlan.Params params = new RlPlan.Params(m, noise.offset(), noise.gain(), settings.tvWeight(),
                             sigma > 0 ? TV_EPSILON_SIGMA * sigma : tiny, settings.dampingSigma(), sky + SIGNAL_SIGMA * sigma,
-                            discs, starCores(floor, plan.gridWidth() * plan.gridHeight()));
+                            discs, m == Method.ACCELERATED_TV_RL ? starCores(floor) : null);
                     long setup = System.nanoTime() - t0;
                     RlPlan.Outcome oc = plan.run(d, valid, floor, true, out.plane(p), params,
                             RlPlan.Conventions.standard(tiny), settings.stopping(), p, listener, cancelled);
@@ -165,18 +165,22 @@ final class PlanningRestorer implements Restorer {
     }
 
     /**
-     * The grid pixels of the protected stars' cores (r &lt; 1.5 px), where the extrapolation's α is measured,
-     * or null without protected stars (α then uses every pixel).
+     * The grid indices of the protected stars' cores (r &lt; 1.5 px), ascending and distinct, where the
+     * extrapolation's α is measured; null without protected stars (α then uses every pixel).
      */
-    static boolean[] starCores(StarFloor.Floor floor, int gridPixels) {
+    static int[] starCores(StarFloor.Floor floor) {
         if (floor == null || floor.starGroups() == null || floor.stars() == 0) {
             return null;
         }
-        boolean[] mask = new boolean[gridPixels];
-        for (int i : floor.coreIndices()) {
-            mask[i] = true;
+        int[] idx = floor.coreIndices().clone();
+        java.util.Arrays.sort(idx);
+        int k = 0;
+        for (int i = 0; i < idx.length; i++) {
+            if (k == 0 || idx[i] != idx[k - 1]) {
+                idx[k++] = idx[i];
+            }
         }
-        return mask;
+        return k > 0 ? java.util.Arrays.copyOf(idx, k) : null;
     }
 
     static NoiseModel estimate(double sky, double sigma) {

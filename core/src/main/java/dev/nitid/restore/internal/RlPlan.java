@@ -71,11 +71,12 @@ public final class RlPlan implements AutoCloseable {
      *                     every valid pixel counts.
      * @param signalMask   grid pixels the χ² counts instead of the signal level (e.g. the discs around the
      *                     protected stars), or null (input, not modified)
-     * @param alphaMask    grid pixels over which the accelerated methods take their α, or null for every
-     *                     pixel (input, not modified)
+     * @param alphaPixels  grid indices over which the accelerated methods take their α, distinct, or null
+     *                     for every pixel (input, not modified); with a list, the change vectors are kept
+     *                     for these pixels only instead of a whole grid
      */
     public record Params(Method method, double offset, double gain, double tvWeight, double tvEpsilon,
-                         double dampingSigma, double signalLevel, boolean[] signalMask, boolean[] alphaMask) {
+                         double dampingSigma, double signalLevel, boolean[] signalMask, int[] alphaPixels) {
         /** Parameters whose χ² counts every valid pixel. */
         public Params(Method method, double offset, double gain, double tvWeight, double tvEpsilon,
                       double dampingSigma) {
@@ -100,7 +101,8 @@ public final class RlPlan implements AutoCloseable {
     private final float[] tmp;
     private float[] xPrev;
     private final float[] accBuf;
-    private final float[] gBuf;
+    /** g_{k−1} on the whole grid, for accelerated runs without an α pixel list; allocated on first use and kept. */
+    private float[] gBuf;
     /** Observed data on the grid, NaN where the weight is 0; null when the observed plane is used directly. */
     private final float[] dataGrid;
     private final float[] invS;
@@ -146,7 +148,6 @@ public final class RlPlan implements AutoCloseable {
         this.tmp = new float[n];
         boolean acc = accelerated(method);
         this.accBuf = acc ? new float[n] : null;
-        this.gBuf = acc ? new float[n] : null;
         this.dataGrid = ext ? new float[n] : null;
         this.invS = ext ? new float[n] : null;
         this.passes = new BlockPasses(gw, gh, threads);
@@ -286,9 +287,18 @@ public final class RlPlan implements AutoCloseable {
         } else {
             Arrays.fill(o, (float) start);
         }
+        // the accelerated form keeps g_{k−1} on the α pixels only, or on the whole grid without a list
+        final int[] ap = p.alphaPixels();
+        final float[] gAt = xPrev != null && ap != null ? new float[ap.length] : null;
+        final float[] yAt = gAt != null ? new float[ap.length] : null;
         if (xPrev != null) {
             System.arraycopy(o, 0, xPrev, 0, n);
-            Arrays.fill(gBuf, 0f);
+            if (ap == null) {
+                if (gBuf == null) {
+                    gBuf = new float[n];
+                }
+                Arrays.fill(gBuf, 0f);
+            }
         }
 
 
@@ -374,11 +384,15 @@ public final class RlPlan implements AutoCloseable {
                 double change;
                 if (acc) {
                     // x_{k+1} = y · Kᵀ(...) / s replaces y; g_k = x_{k+1} − y; x_k stays for the next prediction
-                    final float[] gb = gBuf;
                     // α is measured where the restoration converges, the protected stars' cores: on the sky
                     // the TV term makes successive changes anti-correlated (α < 0, a restart every other
                     // step), and over the whole discs α still decayed to 0.1 within 35 iterations
-                    final boolean[] am = p.alphaMask();
+                    final float[] gb = ap == null ? gBuf : null;
+                    if (ap != null) {
+                        for (int j = 0; j < ap.length; j++) {
+                            yAt[j] = xp[ap[j]];
+                        }
+                    }
                     passes.run((blk, from, to) -> {
                         double num = 0;
                         double den = 0;
@@ -387,12 +401,12 @@ public final class RlPlan implements AutoCloseable {
                         for (int i = from; i < to; i++) {
                             float yv = xp[i];
                             float nv = update(yv, t[i], sInv, i);
-                            float gv = nv - yv;
-                            if (am == null || am[i]) {
+                            if (gb != null) {
+                                float gv = nv - yv;
                                 num += (double) gv * gb[i];
                                 den += (double) gb[i] * gb[i];
+                                gb[i] = gv;
                             }
-                            gb[i] = gv;
                             diff += Math.abs(nv - x[i]);
                             tot += Math.abs(nv);
                             xp[i] = nv;
@@ -402,6 +416,21 @@ public final class RlPlan implements AutoCloseable {
                         s3[blk] = diff;
                         s4[blk] = tot;
                     });
+                    if (ap != null) {
+                        // the α pixels are few (the stars' cores): one pass in list order, on this thread
+                        double num = 0;
+                        double den = 0;
+                        for (int j = 0; j < ap.length; j++) {
+                            float gv = xp[ap[j]] - yAt[j];
+                            num += (double) gv * gAt[j];
+                            den += (double) gAt[j] * gAt[j];
+                            gAt[j] = gv;
+                        }
+                        Arrays.fill(s1, 0);
+                        Arrays.fill(s2, 0);
+                        s1[0] = num;
+                        s2[0] = den;
+                    }
                     alphaNum = BlockPasses.sum(s1);
                     gDotPrev = BlockPasses.sum(s2);
                     sinceRestart++;
