@@ -134,11 +134,16 @@ public final class QualityHarness {
                 f.observed().width(), f.observed().height(), f.catalogue().size(), settings.seed(),
                 ref.inputSigma(), ref.inputFwhm(), ref.fwhmStars().size(), ref.ringStars().size(),
                 ref.nebulaPixels(), build);
-        o.println("| method | iterations (stop) | FWHM ratio | ring depth (sigma) | error vs truth | flux ratio | noise ratio | time (s) |");
-        o.println("|---|---|---:|---:|---:|---:|---:|---:|");
-        row(o, "input (no restoration)", "-", ref.evaluate(f.observed()), 0);
+        // a perfect restoration puts the light the aperture misses back into the star: judge flux against that
+        double ideal = QualityReference.idealFluxRatio(f.psf(), ref.apertureRadius());
+        o.printf(Locale.ROOT, "Flux aperture r = %.1f px holds %.1f %% of the PSF's light: a perfect restoration "
+                + "scores a flux ratio of %.3f; the \"flux / ideal\" column divides by it.%n%n",
+                ref.apertureRadius(), 100 / ideal, ideal);
+        o.println("| method | iterations (stop) | FWHM ratio | ring depth (sigma) | error vs truth | flux ratio | flux / ideal | noise ratio | time (s) |");
+        o.println("|---|---|---:|---:|---:|---:|---:|---:|---:|");
+        row(o, "input (no restoration)", "-", ref.evaluate(f.observed()), 0, ideal);
         if (opt.score() != null) {
-            row(o, opt.score().getFileName().toString(), "?", ref.evaluate(Npy.read(opt.score())), 0);
+            row(o, opt.score().getFileName().toString(), "?", ref.evaluate(Npy.read(opt.score())), 0, ideal);
         }
         for (Entry m : methods()) {
             if (!opt.wants(m.name())) {
@@ -148,7 +153,7 @@ public final class QualityHarness {
             RestorationResult r = Restorers.create(m.settings()).restore(f.observed(), f.psf());
             double secs = (System.nanoTime() - t) / 1e9;
             String it = m.settings().method().iterative() ? r.iterations() + " (" + r.stopReason() + ")" : "-";
-            row(o, m.name(), it, ref.evaluate(r.image()), secs);
+            row(o, m.name(), it, ref.evaluate(r.image()), secs, ideal);
             Npy.write(dir.resolve(slug(m.name()) + ".npy"), r.image());
         }
         if (python) {
@@ -161,9 +166,9 @@ public final class QualityHarness {
             if (code == 0 && Files.exists(result)) {
                 double secs = Double.parseDouble(Files.readString(dir.resolve("skimage_rl.seconds")).trim());
                 row(o, "scikit-image " + log + " richardson_lucy (clip=False)", String.valueOf(ITERATIONS),
-                        ref.evaluate(Npy.read(result)), secs);
+                        ref.evaluate(Npy.read(result)), secs, ideal);
             } else {
-                o.println("| scikit-image RL | (failed: " + log.replace('\n', ' ') + ") | | | | | | |");
+                o.println("| scikit-image RL | (failed: " + log.replace('\n', ' ') + ") | | | | | | | |");
             }
         }
     }
@@ -190,8 +195,8 @@ public final class QualityHarness {
         return Files.isExecutable(Path.of("/usr/bin/python3")) ? "/usr/bin/python3" : "python3";
     }
 
-    static void row(PrintStream o, String name, String iterations, QualityReport r, double seconds) {
-        o.printf(Locale.ROOT, "| %s | %s | %.3f | %.2f | %.3f | %.3f | %.3f | %.2f |%n", name, iterations, r.fwhmRatio(),
-                r.ringDepth(), r.errorRatio(), r.fluxRatio(), r.noiseRatio(), seconds);
+    static void row(PrintStream o, String name, String iterations, QualityReport r, double seconds, double ideal) {
+        o.printf(Locale.ROOT, "| %s | %s | %.3f | %.2f | %.3f | %.3f | %.3f | %.3f | %.2f |%n", name, iterations, r.fwhmRatio(),
+                r.ringDepth(), r.errorRatio(), r.fluxRatio(), r.fluxRatio() / ideal, r.noiseRatio(), seconds);
     }
 }
