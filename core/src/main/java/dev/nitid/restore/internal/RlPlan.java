@@ -110,6 +110,8 @@ public final class RlPlan implements AutoCloseable {
     private float[] invMasked;
     private final Method method;
     private final int threads;
+    /** Zero outside the frame: s = Kᵀw is below 1 near the edges even without masked pixels. */
+    private final boolean zeroEdges;
     /** The element-wise passes and their threads, held for the plan's life. */
     private final BlockPasses passes;
     /** Per row block, three grid rows for the normalised gradients of the TV term; null without it. */
@@ -135,6 +137,7 @@ public final class RlPlan implements AutoCloseable {
         this.padY = ext ? psf.height() / 2 : 0;
         this.gw = width + (ext ? psf.width() - 1 : 0);
         this.gh = height + (ext ? psf.height() - 1 : 0);
+        this.zeroEdges = edges == EdgeHandling.ZERO;
         Boundary b = switch (edges) {
             case ZERO, EXTENDED_DOMAIN -> Boundary.ZERO;
             case REFLECT -> Boundary.REFLECT;
@@ -240,7 +243,10 @@ public final class RlPlan implements AutoCloseable {
         // sensitivity s = Kᵀ w
         float[] inv = invS;
         if (conv0.normalise()) {
-            boolean anyMasked = dataGrid != null;
+            // Zero edges: Kᵀ1 falls below 1 within a PSF radius of the frame's edge, so s is computed even
+            // without masked pixels; before, the plain form (s = 1) ran until a single masked pixel switched
+            // the whole frame to this form (docs/restore.md, "Edges")
+            boolean anyMasked = dataGrid != null || zeroEdges;
             if (!anyMasked) {
                 for (int i = 0; i < n; i++) {
                     if (masked(d, w, i)) {
