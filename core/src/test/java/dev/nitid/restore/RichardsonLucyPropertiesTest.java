@@ -133,6 +133,19 @@ class RichardsonLucyPropertiesTest {
     }
 
     @Test
+    void acceleratedTvWithProtectedStarsIsTheSameForAnyThreadCount() {
+        // the default path: α over the protected stars' cores (a list summed in order), ring floor, TV rows
+        Scene scene = new Scene(3, 96, 3.5, 200, 5);
+        RestoreSettings s = RestoreSettings.defaults().withIterations(12);
+        RestorationResult one = Restorers.create(s.withThreads(1)).restore(scene.observed, scene.psf);
+        assertTrue(one.planes().get(0).protectedStars() > 0, "the scene must have protected stars");
+        for (int threads : new int[] {2, 3}) {
+            float[] b = Restorers.create(s.withThreads(threads)).restore(scene.observed, scene.psf).image().plane(0);
+            assertArrayEquals(one.image().plane(0), b, threads + " threads: results must not depend on the thread count");
+        }
+    }
+
+    @Test
     void acceleratedReachesTheSameLikelihoodInFewerIterations() {
         // Biggs & Andrews (1997): the same likelihood in fewer iterations
         SplittableRandom rnd = new SplittableRandom(5);
