@@ -16,8 +16,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Locale;
 import java.util.concurrent.Callable;
-import java.util.concurrent.ExecutionException;
-import java.util.concurrent.ForkJoinPool;
 import javax.imageio.ImageIO;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -79,7 +77,7 @@ public final class PsfCommand implements Callable<Integer> {
                         "the preview file exists (add --overwrite to replace it, or choose another name)");
             }
             long t0 = System.nanoTime();
-            Image image = render(model, side, os, common.threads());
+            Image image = model.render(side, os, 0, 0);
             PsfFigures figures = PsfFigures.of(image, model);
             double seconds = (System.nanoTime() - t0) / 1e9;
             FitsHeader header = header(model, figures, side, os)
@@ -136,24 +134,6 @@ public final class PsfCommand implements Callable<Integer> {
 
     private int side() {
         return psf.side(size, "--size");
-    }
-
-    /** Renders inside a pool of {@code threads} workers (the pupil FFT spreads over the pool it runs in). */
-    static Image render(PsfModel model, int size, int os, int threads) throws InterruptedException {
-        ForkJoinPool pool = new ForkJoinPool(threads);
-        try {
-            return pool.submit(() -> model.render(size, os, 0, 0)).get();
-        } catch (ExecutionException e) {
-            if (e.getCause() instanceof RuntimeException r) {
-                throw r;
-            }
-            if (e.getCause() instanceof Error err) {
-                throw err;
-            }
-            throw new IllegalStateException(e.getCause());
-        } finally {
-            pool.shutdown();
-        }
     }
 
     private void writePreview(PsfModel model, Image image, PsfFigures figures) throws FitsException {

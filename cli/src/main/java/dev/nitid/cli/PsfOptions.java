@@ -11,7 +11,9 @@ import dev.nitid.psf.Zernike;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
+import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
 
 /**
  * The PSF model options shared by {@code nitid psf}, {@code nitid sharpen} and {@code nitid simulate}
@@ -36,6 +38,10 @@ public final class PsfOptions {
     static final double DEFAULT_WAVELENGTH_NM = 550;
     /** Largest automatic stamp side, pixels. */
     static final int MAX_AUTO_SIZE = 1025;
+
+    /** The command this mixin is part of: its {@link CommonOptions} give the thread count. */
+    @Spec(Spec.Target.MIXEE)
+    CommandSpec mixee;
 
     @Option(names = "--model", paramLabel = "MODEL",
             description = "PSF model: ${COMPLETION-CANDIDATES}.")
@@ -166,7 +172,7 @@ public final class PsfOptions {
                 }
                 yield new PupilPsf(d, obstruction == null ? 0 : obstruction, n, n > 0 ? vaneWidth : 0,
                         vaneAngle == null ? 0 : vaneAngle, f, p, spectrum(), parseZernike(zernike),
-                        PupilPsf.DEFAULT_PUPIL_SAMPLES);
+                        PupilPsf.DEFAULT_PUPIL_SAMPLES, threads());
             }
         };
         double scale = Double.NaN;
@@ -190,6 +196,23 @@ public final class PsfOptions {
             throw new IllegalArgumentException("--seeing-profile needs --seeing (the seeing FWHM in arcsec)");
         }
         return Psfs.withSeeingAndJitter(base, s, jitter == null ? 0 : jitter, scale);
+    }
+
+    /**
+     * The command's {@code --threads} (through its {@link CommonOptions} mixin), so that pupil renders use no
+     * more threads than asked.
+     *
+     * @return the thread count, or all available processors when the command has no common options
+     */
+    int threads() {
+        if (mixee != null) {
+            for (CommandSpec m : mixee.mixins().values()) {
+                if (m.userObject() instanceof CommonOptions c) {
+                    return c.threads();
+                }
+            }
+        }
+        return Runtime.getRuntime().availableProcessors();
     }
 
     /**
