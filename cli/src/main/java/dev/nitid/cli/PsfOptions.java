@@ -1,5 +1,6 @@
 package dev.nitid.cli;
 
+import dev.nitid.psf.ConvolvedPsf;
 import dev.nitid.psf.GaussianPsf;
 import dev.nitid.psf.MoffatPsf;
 import dev.nitid.psf.PsfModel;
@@ -141,7 +142,8 @@ public final class PsfOptions extends OpticsOptions {
         } else if (seeingProfile != null) {
             throw new IllegalArgumentException("--seeing-profile needs --seeing (the seeing FWHM in arcsec)");
         }
-        return Psfs.withSeeingAndJitter(base, s, jitter == null ? 0 : jitter, scale);
+        PsfModel blurred = Psfs.withSeeingAndJitter(base, s, jitter == null ? 0 : jitter, scale);
+        return blurred instanceof ConvolvedPsf c ? c.withThreads(threads()) : blurred;
     }
 
     /**

@@ -41,5 +41,6 @@ class PsfThreadsOptionTest {
         withSeeing[args.length - 1] = "2";
         PsfModel s = parsed(cf[0], cf[1], withSeeing).toModel();
         assertEquals(2, ((PupilPsf) ((ConvolvedPsf) s).base()).threads());
+        assertEquals(2, ((ConvolvedPsf) s).threads(), "the seeing convolution too");
     }
 }

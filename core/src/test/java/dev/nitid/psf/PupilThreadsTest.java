@@ -51,9 +51,24 @@ class PupilThreadsTest {
 
     @ParameterizedTest(name = "seed {0}")
     @MethodSource("seeds")
+    void blurredPupilIsIdenticalOnOneAndTwoThreads(long seed) {
+        SplittableRandom r = new SplittableRandom(seed);
+        PupilPsf p = random(r);
+        double scale = PupilPsf.plateScaleArcsec(p.pixelSizeUm(), p.focalLengthMm());
+        ConvolvedPsf blurred = (ConvolvedPsf) Psfs.withSeeingAndJitter(p, Seeing.moffat(r.nextDouble(1, 3)),
+                r.nextDouble(0, 0.8), scale);
+        Image one = new ConvolvedPsf(p.withThreads(1), blurred.kernels(), blurred.blurParameters(),
+                blurred.plateScale(), 1).render(21, 3, 0.2, -0.1);
+        Image two = new ConvolvedPsf(p.withThreads(2), blurred.kernels(), blurred.blurParameters(),
+                blurred.plateScale(), 2).render(21, 3, 0.2, -0.1);
+        assertArrayEquals(one.plane(0), two.plane(0), "seed " + seed + ": " + blurred.description());
+    }
+
+    @ParameterizedTest(name = "seed {0}")
+    @MethodSource("seeds")
     void threadsAreASettingNotAParameter(long seed) {
-        PupilPsf p = random(new SplittableRandom(seed));
-        assertEquals(1, p.withThreads(1).threads());
+        PupilPsf p = random(new SplittableRandom(seed)).withThreads(1);
+        assertEquals(1, p.threads());
         // the FITS description of the model does not change with the thread count
         assertEquals(p.withThreads(1).parameters(), p.withThreads(2).parameters());
         assertThrows(IllegalArgumentException.class, () -> p.withThreads(0));
