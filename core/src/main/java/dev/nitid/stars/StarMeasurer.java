@@ -92,10 +92,21 @@ public final class StarMeasurer {
      * @param h      header (input, not modified)
      * @param bitpix BITPIX of the data
      * @return the level, or empty when unknown
+     * @throws IllegalArgumentException if SATURATE, BZERO or BSCALE holds something that is not a FITS
+     *                                  number (FITS Standard 4.0 §4.2.3–4.2.4): falling back to the type
+     *                                  ceiling would let saturated stars through unnoticed
      */
     public static java.util.OptionalDouble saturationLevel(FitsHeader h, int bitpix) {
+        for (String key : new String[] {"SATURATE", "BZERO", "BSCALE"}) {
+            java.util.Optional<String> bad = h.malformedNumber(key);
+            if (bad.isPresent()) {
+                throw new IllegalArgumentException(key + " is " + bad.get() + ", not a number (FITS Standard 4.0 "
+                        + "§4.2.3-4.2.4), so the saturation level is unknown: correct or remove the card, or give "
+                        + "the saturation level explicitly");
+            }
+        }
         java.util.OptionalDouble sat = h.getDouble("SATURATE");
-        if (sat.isPresent() && Double.isFinite(sat.getAsDouble())) {
+        if (sat.isPresent()) {
             return sat;
         }
         if (bitpix < 0) {
