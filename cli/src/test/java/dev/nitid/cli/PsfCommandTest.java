@@ -37,7 +37,7 @@ class PsfCommandTest {
         assertEquals(3, fi.header().getDouble("PSFFWHMA").orElseThrow(), 1e-12);
         assertEquals(2.4, fi.header().getDouble("PSFFWHMB").orElseThrow(), 1e-12);
         assertEquals(30, fi.header().getDouble("PSFANGLE").orElseThrow(), 1e-12);
-        assertEquals(5, fi.header().getDouble("OVERSAMP").orElseThrow(), 0);
+        assertEquals(5, fi.header().getDouble("SUBPIXEL").orElseThrow(), 0);
         PsfFigures fig = PsfFigures.of(fi.image());
         assertEquals(fig.fwhmPx(), fi.header().getDouble("FWHM").orElseThrow(), 1e-6, "FWHM card = figure of the file");
         String history = fi.header().cards().stream().filter(c -> "HISTORY".equals(c.key()))
@@ -70,7 +70,7 @@ class PsfCommandTest {
         assertEquals(0, r.code(), r.err());
         FitsImage fi = FitsReader.read(f);
         assertEquals(0.775555671489, fi.header().getDouble("PLTSCALE").orElseThrow(), 1e-9);
-        assertEquals(5, fi.header().getDouble("NWAVE").orElseThrow(), 0, "5 wavelengths over 100 nm");
+        assertEquals(5, fi.header().getDouble("NLAMBDA").orElseThrow(), 0, "5 wavelengths over 100 nm");
         assertEquals(0.05, fi.header().getDouble("ZERN4").orElseThrow(), 0);
         assertEquals(0.3, fi.header().getDouble("JITTER").orElseThrow(), 0);
         double strehl = fi.header().getDouble("STREHL").orElseThrow();
@@ -134,7 +134,7 @@ class PsfCommandTest {
         FitsImage fi = FitsReader.read(dir.resolve("band.fits"));
         assertEquals(400, fi.header().getDouble("BANDLO").orElseThrow(), 1e-9);
         assertEquals(700, fi.header().getDouble("BANDHI").orElseThrow(), 1e-9);
-        assertEquals(15, fi.header().getDouble("NWAVE").orElseThrow(), 0, "one wavelength per 20 nm");
+        assertEquals(15, fi.header().getDouble("NLAMBDA").orElseThrow(), 0, "one wavelength per 20 nm");
     }
 
     /**

@@ -4,7 +4,7 @@ import dev.nitid.fits.FitsHeader;
 
 /**
  * The FITS cards that describe a rendered PSF model: every {@linkplain PsfModel#parameters() model parameter},
- * the rendering settings (PSFSIZE, OVERSAMP, PSFSUM), the figures measured on the rendered image (FWHM,
+ * the rendering settings (PSFSIZE, SUBPIXEL, PSFSUM), the figures measured on the rendered image (FWHM,
  * FWHMMAJ, FWHMMIN, FWHMANG, R50, R80, FWHMAS when finite or known) and the optical figures the model knows
  * (PLTSCALE, STREHL, NYQRATIO, UNDERSMP), then two HISTORY cards. The keywords are listed in
  * {@code docs/psf.md}; the card value types follow the FITS Standard 4.0 §4.2 (real, integer, logical,
@@ -44,7 +44,7 @@ public final class PsfHeader {
             }
         }
         h = h.with("PSFSIZE", (long) size, "[px] PSF image side (odd; centre pixel is the PSF centre)")
-                .with("OVERSAMP", (long) oversample, "sub-pixels per pixel per axis (1 = point sampled)")
+                .with("SUBPIXEL", (long) oversample, "sub-pixels per pixel per axis (1 = point sampled)")
                 .with("PSFSUM", 1.0, "the image is normalised to sum 1");
         PsfFigures f = figures;
         if (Double.isFinite(f.fwhmPx())) {

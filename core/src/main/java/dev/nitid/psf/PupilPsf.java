@@ -319,7 +319,7 @@ public record PupilPsf(double apertureMm, double obstruction, int vanes, double 
             p.add(PsfParameter.of("BANDLO", spectrum.edgesNm()[0], "[nm] short edge of the band"));
             p.add(PsfParameter.of("BANDHI", spectrum.edgesNm()[1], "[nm] long edge of the band"));
         }
-        p.add(PsfParameter.of("NWAVE", (long) spectrum.size(), "wavelengths summed, equal photon weights"));
+        p.add(PsfParameter.of("NLAMBDA", (long) spectrum.size(), "wavelengths summed, equal photon weights"));
         for (Map.Entry<Integer, Double> e : zernike.nonZero().entrySet()) {
             p.add(PsfParameter.of("ZERN" + e.getKey(), e.getValue(), "[waves RMS] Zernike Noll " + e.getKey()
                     + " at the band centre"));

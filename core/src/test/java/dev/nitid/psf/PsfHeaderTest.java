@@ -35,7 +35,7 @@ class PsfHeaderTest {
         assertEquals(sigma * Math.sqrt(2 * Math.log(5)), h.getDouble("R80").orElseThrow(),
                 RADIUS_REL * 2 * sigma, "R80");
         assertEquals(61, h.getDouble("PSFSIZE").orElseThrow(), 0);
-        assertEquals(5, h.getDouble("OVERSAMP").orElseThrow(), 0);
+        assertEquals(5, h.getDouble("SUBPIXEL").orElseThrow(), 0);
         assertEquals(1.0, h.getDouble("PSFSUM").orElseThrow(), 0);
         // every model parameter is a card with the parameter's value
         for (PsfParameter p : g.parameters()) {
