@@ -92,21 +92,48 @@ public final class EllipticalProfileModel implements Model {
                     if (jacobian != null) {
                         System.arraycopy(grad, 0, jacobian, idx * p, p);
                     }
-                } else {
+                } else if (jacobian == null) {
                     v = 0;
-                    if (jacobian != null) {
-                        java.util.Arrays.fill(jacobian, idx * p, idx * p + p, 0.0);
+                    for (int sj = 0; sj < NODES.length; sj++) {
+                        for (int si = 0; si < NODES.length; si++) {
+                            v += WEIGHTS[si] * WEIGHTS[sj] * point(q, i + NODES[si], j + NODES[sj], false);
+                        }
                     }
+                } else {
+                    // Sums in registers, in the order of the quadrature points, written once per pixel.
+                    v = 0;
+                    double j0 = 0;
+                    double j1 = 0;
+                    double j2 = 0;
+                    double j3 = 0;
+                    double j4 = 0;
+                    double j5 = 0;
+                    double j6 = 0;
+                    double j7 = 0;
                     for (int sj = 0; sj < NODES.length; sj++) {
                         for (int si = 0; si < NODES.length; si++) {
                             double wgt = WEIGHTS[si] * WEIGHTS[sj];
-                            v += wgt * point(q, i + NODES[si], j + NODES[sj], jacobian != null);
-                            if (jacobian != null) {
-                                for (int k = 0; k < p; k++) {
-                                    jacobian[idx * p + k] += wgt * grad[k];
-                                }
-                            }
+                            v += wgt * point(q, i + NODES[si], j + NODES[sj], true);
+                            j0 += wgt * grad[0];
+                            j1 += wgt * grad[1];
+                            j2 += wgt * grad[2];
+                            j3 += wgt * grad[3];
+                            j4 += wgt * grad[4];
+                            j5 += wgt * grad[5];
+                            j6 += wgt * grad[6];
+                            j7 += wgt * grad[7];
                         }
+                    }
+                    int row = idx * p;
+                    jacobian[row] = j0;
+                    jacobian[row + 1] = j1;
+                    jacobian[row + 2] = j2;
+                    jacobian[row + 3] = j3;
+                    jacobian[row + 4] = j4;
+                    jacobian[row + 5] = j5;
+                    jacobian[row + 6] = j6;
+                    if (p == 8) {
+                        jacobian[row + 7] = j7;
                     }
                 }
                 values[idx] = v;
