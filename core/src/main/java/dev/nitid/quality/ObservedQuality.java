@@ -54,6 +54,7 @@ public final class ObservedQuality {
 
     private final Image input;
     private final QualitySettings settings;
+    private final BackgroundMap map;
     private final float[] background;
     private final boolean[] skyMask;
     private final List<StarSite> fwhmStars;
@@ -67,10 +68,11 @@ public final class ObservedQuality {
     /** Input aperture flux of each FWHM star (NaN where the annulus leaves the image). */
     private final double[] inputFluxes;
 
-    private ObservedQuality(Image input, QualitySettings settings, float[] background, boolean[] skyMask,
-                            List<StarSite> fwhmStars, List<StarSite> ringStars, int threads) {
+    private ObservedQuality(Image input, QualitySettings settings, BackgroundMap map, float[] background,
+                            boolean[] skyMask, List<StarSite> fwhmStars, List<StarSite> ringStars, int threads) {
         this.input = input;
         this.settings = settings;
+        this.map = map;
         this.background = background;
         this.skyMask = skyMask;
         this.threads = threads;
@@ -110,6 +112,8 @@ public final class ObservedQuality {
 
     /**
      * Builds the reference from a star measurement of the input (for example the one that gave the PSF).
+     * The measurement's background map is reused when it was estimated with
+     * {@link BackgroundSettings#defaults()} (the measurement's default), else the map is estimated here.
      *
      * @param input       the observed image, plane 0 (input, not modified)
      * @param measurement stars measured on that plane
@@ -123,8 +127,11 @@ public final class ObservedQuality {
     public static ObservedQuality of(Image input, StarMeasurement measurement, double saturation,
                                      QualitySettings settings, int threads) {
         checkSize(input, measurement);
-        BackgroundMap map = BackgroundMap.estimate(input.plane(0), input.width(), input.height(),
-                BackgroundSettings.defaults(), threads);
+        BackgroundMap held = measurement.backgroundMap();
+        BackgroundMap map = held != null && held.settings().equals(BackgroundSettings.defaults())
+                ? held
+                : BackgroundMap.estimate(input.plane(0), input.width(), input.height(), BackgroundSettings.defaults(),
+                        threads);
         return of(input, measurement, map, saturation, settings, threads);
     }
 
@@ -235,7 +242,7 @@ public final class ObservedQuality {
             throw new IllegalArgumentException("only " + n + " star-free sky pixels in the input: the noise "
                     + "figures need at least 1000");
         }
-        return new ObservedQuality(input, settings, bg, sky, fwhmStars, ringStars, threads);
+        return new ObservedQuality(input, settings, map, bg, sky, fwhmStars, ringStars, threads);
     }
 
     private static void checkSize(Image input, StarMeasurement measurement) {
@@ -372,6 +379,57 @@ public final class ObservedQuality {
         double noiseOut = skyNoise(output);
         QualityMetrics.TruthError none = new QualityMetrics.TruthError(Double.NaN, Double.NaN, Double.NaN, 0);
         return new QualityReport(fwhm, ring, none, none, Double.NaN, flux, inputSigma, noiseOut, noiseOut / inputSigma);
+    }
+
+    /**
+     * A place to look at faint extended light: see {@link #faintRegion(BackgroundMap, double, int)}, on the
+     * input's background map.
+     *
+     * @param sigmaAbove how many sky σ above the sky the wanted light is, ≥ 0
+     * @param margin     keep the site at least this many pixels from the edges where the image allows, ≥ 0
+     * @return the centre of the chosen mesh point
+     */
+    public StarSite faintRegion(double sigmaAbove, int margin) {
+        return faintRegion(map, sigmaAbove, margin);
+    }
+
+    /**
+     * The mesh point (cell corner on a {@code meshSize} grid) whose smooth background is closest to
+     * {@code globalLevel + sigmaAbove·globalNoise}: faint extended light (nebulosity, a galaxy's outskirts,
+     * a gradient) if the frame has any, else plain sky. Points are scanned row by row from
+     * {@code min(margin, size/2)} to {@code size − margin} and the first closest wins; the frame centre when no
+     * point fits. The mesh map already ignores stars (clipped cell medians, median-filtered), so a bright star
+     * cannot be chosen. This is the preview's faint-region crop (common practice, no source).
+     *
+     * @param background the frame's background map (input, not modified)
+     * @param sigmaAbove how many sky σ above the sky the wanted light is, ≥ 0
+     * @param margin     keep the site at least this many pixels from the edges where the image allows, ≥ 0
+     * @return the chosen point, whole pixels
+     * @throws IllegalArgumentException if sigmaAbove or margin is negative
+     */
+    public static StarSite faintRegion(BackgroundMap background, double sigmaAbove, int margin) {
+        if (!(sigmaAbove >= 0) || margin < 0) {
+            throw new IllegalArgumentException("sigmaAbove is " + sigmaAbove + " and margin " + margin
+                    + ": both must be ≥ 0 (e.g. 4 σ and half a crop)");
+        }
+        int w = background.width();
+        int h = background.height();
+        double target = background.globalLevel() + sigmaAbove * background.globalNoise();
+        int step = Math.max(1, background.meshSize());
+        int bx = w / 2;
+        int by = h / 2;
+        double closest = Double.POSITIVE_INFINITY;
+        for (int y = Math.min(margin, h / 2); y < h - margin; y += step) {
+            for (int x = Math.min(margin, w / 2); x < w - margin; x += step) {
+                double miss = Math.abs(background.levelAt(x, y) - target);
+                if (miss < closest) {
+                    closest = miss;
+                    bx = x;
+                    by = y;
+                }
+            }
+        }
+        return new StarSite(bx, by);
     }
 
     /** @return the input's sky σ (background-subtracted, see the class comment) */

@@ -19,6 +19,7 @@ public final class BackgroundMap {
     private final int width;
     private final int height;
     private final int mesh;
+    private final BackgroundSettings settings;
     private final int cellsX;
     private final int cellsY;
     private final float[] level;
@@ -26,10 +27,12 @@ public final class BackgroundMap {
     private final double globalNoise;
     private final double globalLevel;
 
-    private BackgroundMap(int width, int height, int mesh, int cellsX, int cellsY, float[] level, float[] noise) {
+    private BackgroundMap(int width, int height, int mesh, BackgroundSettings settings, int cellsX, int cellsY,
+                          float[] level, float[] noise) {
         this.width = width;
         this.height = height;
         this.mesh = mesh;
+        this.settings = settings;
         this.cellsX = cellsX;
         this.cellsY = cellsY;
         this.level = level;
@@ -121,7 +124,7 @@ public final class BackgroundMap {
         fillInvalid(noise);
         float[] fl = medianFilter(level, cx, cy, settings.filterSize());
         float[] fn = medianFilter(noise, cx, cy, settings.filterSize());
-        return new BackgroundMap(width, height, mesh, cx, cy, fl, fn);
+        return new BackgroundMap(width, height, mesh, settings, cx, cy, fl, fn);
     }
 
     private static double madSigma(float[] v, int n, double med, float[] dev) {
@@ -180,6 +183,14 @@ public final class BackgroundMap {
     /** @return image height this map covers */
     public int height() {
         return height;
+    }
+
+    /**
+     * @return the settings the map was estimated with (a caller holding a map can check that it is the one it
+     *         would have estimated itself before reusing it)
+     */
+    public BackgroundSettings settings() {
+        return settings;
     }
 
     /** @return cell side in pixels */

@@ -351,7 +351,7 @@ public final class StarMeasurer {
                 Collections.unmodifiableList(stars),
                 Collections.unmodifiableMap(rejected), skipped, bg.globalLevel(), bg.globalNoise(), gs, ms, best,
                 Collections.unmodifiableList(regions), gc, gr, emp, model, mismatch, source, reason,
-                Collections.unmodifiableMap(timings), stars.size() >= s.minStars());
+                Collections.unmodifiableMap(timings), stars.size() >= s.minStars(), bg);
     }
 
     /** Median Gaussian FWHM of the {@code count} highest-S/N stars (ties keep list order). */
