@@ -166,10 +166,12 @@ public final class ObservedQuality {
 
         List<Detection> det = measurement.detections();
         List<MeasuredStar> all = measurement.stars();
+        DetectionGrid grid = new DetectionGrid(det, w, h,
+                Math.max(1.0, Math.max(settings.isolationRadius(), settings.brighterRadius())));
         boolean[] keep = new boolean[all.size()];
         Parallel.forEach(all.size(), threads, (i, worker) -> {
             MeasuredStar s = all.get(i);
-            keep[i] = s.snr() >= settings.minPeakSigma() && isolated(s, det, settings)
+            keep[i] = s.snr() >= settings.minPeakSigma() && isolated(s, grid, settings)
                     && !saturated(input, s.x(), s.y(), settings.fitStamp() / 2, saturation);
         });
         List<MeasuredStar> chosen = new ArrayList<>();
@@ -273,29 +275,88 @@ public final class ObservedQuality {
         return x >= border && y >= border && x <= w - 1 - border && y <= h - 1 - border;
     }
 
-    private static boolean isolated(MeasuredStar s, List<Detection> det, QualitySettings q) {
-        Detection self = null;
-        double best = Double.POSITIVE_INFINITY;
-        for (Detection d : det) {
-            double dist = Math.hypot(d.x() - s.x(), d.y() - s.y());
-            if (dist < best) {
-                best = dist;
-                self = d;
+    /**
+     * Detections bucketed on a grid of cells at least as large as both isolation radii, so a star's tests look at
+     * the 3×3 cells around it instead of every detection of the frame (3 000 detections × 1 000 stars at 24 MP).
+     */
+    private static final class DetectionGrid {
+        private final List<Detection> det;
+        private final double cell;
+        private final int cols;
+        private final int rows;
+        private final int[][] buckets;
+
+        DetectionGrid(List<Detection> det, int w, int h, double cell) {
+            this.det = det;
+            this.cell = cell;
+            this.cols = Math.max(1, (int) Math.ceil(w / cell) + 1);
+            this.rows = Math.max(1, (int) Math.ceil(h / cell) + 1);
+            int[] count = new int[cols * rows];
+            int[] where = new int[det.size()];
+            for (int k = 0; k < det.size(); k++) {
+                where[k] = bucket(det.get(k).x(), det.get(k).y());
+                count[where[k]]++;
+            }
+            buckets = new int[cols * rows][];
+            for (int b = 0; b < buckets.length; b++) {
+                buckets[b] = new int[count[b]];
+                count[b] = 0;
+            }
+            // In list order within each bucket.
+            for (int k = 0; k < det.size(); k++) {
+                buckets[where[k]][count[where[k]]++] = k;
             }
         }
-        if (self == null) {
+
+        private int bucket(double x, double y) {
+            int i = Math.min(cols - 1, Math.max(0, (int) Math.floor(x / cell)));
+            int j = Math.min(rows - 1, Math.max(0, (int) Math.floor(y / cell)));
+            return j * cols + i;
+        }
+    }
+
+    /**
+     * No detection within {@code isolationRadius} brighter than {@code isolationFraction} of the star's own
+     * detection, and none brighter within {@code brighterRadius}. The star's own detection is the nearest one;
+     * only detections closer than the larger radius can fail the test, so looking within it gives the same answer
+     * as looking at all (ties in distance go to the first detection in list order, as in a full scan).
+     */
+    private static boolean isolated(MeasuredStar s, DetectionGrid g, QualitySettings q) {
+        int ci = Math.min(g.cols - 1, Math.max(0, (int) Math.floor(s.x() / g.cell)));
+        int cj = Math.min(g.rows - 1, Math.max(0, (int) Math.floor(s.y() / g.cell)));
+        int selfIndex = -1;
+        double best = Double.POSITIVE_INFINITY;
+        for (int j = Math.max(0, cj - 1); j <= Math.min(g.rows - 1, cj + 1); j++) {
+            for (int i = Math.max(0, ci - 1); i <= Math.min(g.cols - 1, ci + 1); i++) {
+                for (int k : g.buckets[j * g.cols + i]) {
+                    Detection d = g.det.get(k);
+                    double dist = Math.hypot(d.x() - s.x(), d.y() - s.y());
+                    if (dist < best || (dist == best && k < selfIndex)) {
+                        best = dist;
+                        selfIndex = k;
+                    }
+                }
+            }
+        }
+        if (selfIndex < 0) {
             return true;
         }
-        for (Detection d : det) {
-            if (d == self) {
-                continue;
-            }
-            double dist = Math.hypot(d.x() - s.x(), d.y() - s.y());
-            if (dist < q.isolationRadius() && d.significance() > q.isolationFraction() * self.significance()) {
-                return false;
-            }
-            if (dist < q.brighterRadius() && d.significance() > self.significance()) {
-                return false;
+        Detection self = g.det.get(selfIndex);
+        for (int j = Math.max(0, cj - 1); j <= Math.min(g.rows - 1, cj + 1); j++) {
+            for (int i = Math.max(0, ci - 1); i <= Math.min(g.cols - 1, ci + 1); i++) {
+                for (int k : g.buckets[j * g.cols + i]) {
+                    if (k == selfIndex) {
+                        continue;
+                    }
+                    Detection d = g.det.get(k);
+                    double dist = Math.hypot(d.x() - s.x(), d.y() - s.y());
+                    if (dist < q.isolationRadius() && d.significance() > q.isolationFraction() * self.significance()) {
+                        return false;
+                    }
+                    if (dist < q.brighterRadius() && d.significance() > self.significance()) {
+                        return false;
+                    }
+                }
             }
         }
         return true;
