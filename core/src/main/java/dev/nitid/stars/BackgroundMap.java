@@ -1,5 +1,6 @@
 package dev.nitid.stars;
 
+import dev.nitid.stars.internal.HistogramMedian;
 import dev.nitid.stars.internal.Parallel;
 import dev.nitid.stars.internal.Select;
 
@@ -71,6 +72,10 @@ public final class BackgroundMap {
         int maxCell = (width / cx + width % cx + 1) * (height / cy + height % cy + 1);
         float[][] scratch = new float[Math.max(1, threads)][maxCell];
         float[][] deviations = new float[Math.max(1, threads)][maxCell];
+        HistogramMedian[] medians = new HistogramMedian[Math.max(1, threads)];
+        for (int t = 0; t < medians.length; t++) {
+            medians[t] = new HistogramMedian(maxCell);
+        }
         Parallel.forEach(cx * cy, threads, (cell, worker) -> {
             int i = cell % cx;
             int j = cell / cx;
@@ -99,8 +104,8 @@ public final class BackgroundMap {
             double med = 0;
             double sig = 0;
             for (int it = 0; it < settings.clipIterations(); it++) {
-                med = Select.median(buf, n);
-                sig = madSigma(buf, n, med, deviations[worker]);
+                med = medians[worker].median(buf, n);
+                sig = madSigma(buf, n, med, deviations[worker], medians[worker]);
                 if (!(sig > 0)) {
                     break;
                 }
@@ -127,11 +132,11 @@ public final class BackgroundMap {
         return new BackgroundMap(width, height, mesh, settings, cx, cy, fl, fn);
     }
 
-    private static double madSigma(float[] v, int n, double med, float[] dev) {
+    private static double madSigma(float[] v, int n, double med, float[] dev, HistogramMedian median) {
         for (int k = 0; k < n; k++) {
             dev[k] = (float) Math.abs(v[k] - med);
         }
-        return Select.MAD_TO_SIGMA * Select.median(dev, n);
+        return Select.MAD_TO_SIGMA * median.median(dev, n);
     }
 
     private static void fillInvalid(float[] cells) {
