@@ -113,9 +113,9 @@ public final class MeasureCommand implements Callable<Integer> {
             checkOutput(psfOut);
             checkOutput(plot);
             FitsImage frame = FitsReader.read(input, new ReadOptions(hdu));
-            PlateScale scale = optionScale != null ? optionScale : headerScale(frame);
+            PlateScale scale = optionScale != null ? optionScale : HeaderNumbers.plateScale(input, frame, "--pixel-scale").orElse(null);
             if (saturation == null) {
-                OptionalDouble level = headerSaturation(frame);
+                OptionalDouble level = HeaderNumbers.saturation(input, frame);
                 if (level.isPresent()) {
                     settings = settings.withSaturation(level.getAsDouble());
                 }
@@ -200,32 +200,6 @@ public final class MeasureCommand implements Callable<Integer> {
         MeasureSettings s = MeasureSettings.defaults().withThresholdSigma(threshold).withDetectionFwhm(fwhmGuess)
                 .withGrid(cols, rows).withMaxStars(maxStars).withThreads(common.threads());
         return saturation != null ? s.withSaturation(saturation) : s;
-    }
-
-    /** The header's plate scale; a malformed number card is a data error naming the file and the card. */
-    private PlateScale headerScale(FitsImage frame) throws FitsException {
-        try {
-            return PlateScale.fromHeader(frame.header()).orElse(null);
-        } catch (IllegalArgumentException e) {
-            throw headerProblem(frame, e, "--pixel-scale");
-        }
-    }
-
-    /** The header's saturation level; a malformed number card is a data error naming the file and the card. */
-    private OptionalDouble headerSaturation(FitsImage frame) throws FitsException {
-        try {
-            return StarMeasurer.saturationLevel(frame.header(), frame.bitpix());
-        } catch (IllegalArgumentException e) {
-            throw headerProblem(frame, e, "--saturation");
-        }
-    }
-
-    private FitsException headerProblem(FitsImage frame, IllegalArgumentException e, String option) {
-        String msg = e.getMessage();
-        int colon = msg.lastIndexOf(": ");
-        String what = colon > 0 ? msg.substring(0, colon) : msg;
-        return new FitsException(FitsException.Kind.BAD_DATA, input, frame.hdu(), null,
-                what + " (correct or remove the card, or give " + option + ")", e);
     }
 
     private PlateScale optionScale() {

@@ -121,6 +121,9 @@ public final class SharpenCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "IN.fits", description = "The image to sharpen (one plane or a colour cube).")
     Path input;
 
+    /** The saturation level from the option or the header, read once right after the input. */
+    private OptionalDouble headerSaturation = OptionalDouble.empty();
+
     @Option(names = "--psf", paramLabel = "PSF.fits",
             description = "The PSF: one plane for all image planes, or a cube with one PSF per plane. Its centre is "
                     + "pixel (floor(w/2), floor(h/2)); it is normalised to unit sum. Default: measured from the "
@@ -191,6 +194,9 @@ public final class SharpenCommand implements Callable<Integer> {
             checkSideOutput(preview);
             checkSideOutput(report);
             FitsImage in = FitsReader.read(input, new ReadOptions(-1, WORKING_COPIES));
+            headerSaturation = saturation != null ? OptionalDouble.of(saturation) : HeaderNumbers.saturation(input, in);
+            Optional<PlateScale> headerScale = model.focalLength != null && model.pixelSize != null
+                    ? Optional.empty() : HeaderNumbers.plateScale(input, in, "--focal-length with --pixel-size");
             stages.mark("read");
             RestoreSettings s = settings(in);
             PsfChoice psf = psf(in);
@@ -217,7 +223,7 @@ public final class SharpenCommand implements Callable<Integer> {
             Optional<PlateScale> scale = model.focalLength != null && model.pixelSize != null
                     ? Optional.of(PlateScale.fromOptics(model.pixelSize, model.focalLength, 1,
                             "--focal-length and --pixel-size"))
-                    : PlateScale.fromHeader(in.header());
+                    : headerScale;
             FitsHeader h = header(in.header(), s, r, psf, f);
             WriteReport wr = FitsWriter.write(out, r.image(), h,
                     WriteOptions.defaults().withOverwrite(overwrite).withProtectedInputs(protectedInputs()));
@@ -502,8 +508,7 @@ public final class SharpenCommand implements Callable<Integer> {
             case pixels -> StarProtection.skyFloor();
             case none -> StarProtection.none();
         });
-        OptionalDouble level = saturation != null ? OptionalDouble.of(saturation)
-                : StarMeasurer.saturationLevel(in.header(), in.bitpix());
+        OptionalDouble level = headerSaturation;
         if (level.isPresent()) {
             s = s.withSaturation(level.getAsDouble());
         }
