@@ -34,9 +34,9 @@ class AnalyticModelsTest {
     /**
      * Elliptical profiles integrated to r = 400 px with h = 0.1 px: the same Simpson term is
      * 5.6e-7·|g‴(0)|, with |g‴(0)| = 1.5(σ₁⁻² + σ₂⁻²)/(σ₁σ₂) = 0.47 for the Gaussian (derived here; 2.6e-7,
-     * as measured) and ≈ 2.1 for the narrower Moffat core (measured 1.2e-6); the tail beyond 400 px is below 1e-8 and the
-     * angular trapezoid rule converges geometrically for these smooth periodic integrands (common
-     * practice, no source). 2e-6 covers the larger Simpson term.
+     * as measured) and ≈ 2.1 for the narrower Moffat core (measured 1.2e-6); the tail beyond 400 px is
+     * below 1e-8 and the angular trapezoid rule converges geometrically for these smooth periodic integrands
+     * (common practice, no source). 2e-6 covers the larger Simpson term.
      */
     static final double ELLIPTICAL_QUADRATURE_ATOL = 2e-6;
     /**
