@@ -4,8 +4,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 
 import dev.nitid.image.Image;
-import java.io.IOException;
-import java.io.InputStream;
+import dev.nitid.testdata.Reference;
 import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
 import java.util.List;
@@ -67,29 +66,25 @@ class AnalyticModelsTest {
     }
 
     static List<Map<String, String>> astropy(String file) {
-        try (InputStream in = AnalyticModelsTest.class.getResourceAsStream("/dev/nitid/testdata/psf/" + file)) {
-            String[] lines = new String(in.readAllBytes(), StandardCharsets.UTF_8).split("\r?\n");
-            List<Map<String, String>> rows = new ArrayList<>();
-            String[] header = null;
-            for (String l : lines) {
-                if (l.startsWith("#") || l.isBlank()) {
-                    continue;
-                }
-                String[] p = l.split(",");
-                if (header == null) {
-                    header = p;
-                    continue;
-                }
-                Map<String, String> m = new java.util.HashMap<>();
-                for (int i = 0; i < p.length; i++) {
-                    m.put(header[i], p[i]);
-                }
-                rows.add(m);
+        String[] lines = new String(Reference.bundledBytes("psf/" + file), StandardCharsets.UTF_8).split("\r?\n");
+        List<Map<String, String>> rows = new ArrayList<>();
+        String[] header = null;
+        for (String l : lines) {
+            if (l.startsWith("#") || l.isBlank()) {
+                continue;
             }
-            return rows;
-        } catch (IOException e) {
-            throw new java.io.UncheckedIOException(e);
+            String[] p = l.split(",");
+            if (header == null) {
+                header = p;
+                continue;
+            }
+            Map<String, String> m = new java.util.HashMap<>();
+            for (int i = 0; i < p.length; i++) {
+                m.put(header[i], p[i]);
+            }
+            rows.add(m);
         }
+        return rows;
     }
 
     @Test
