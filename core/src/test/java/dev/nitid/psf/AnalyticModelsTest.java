@@ -53,7 +53,7 @@ class AnalyticModelsTest {
     static final double R50_RTOL = 5e-3;
     /**
      * EE at r = FWHM_eff against 15/16. scipy 1.10.1 quadrature of the exact Gaussian ⊛ box gives 15/16 +
-     * 1.7e-6 (derived here), so the profile's shape is not the issue; the measurement is. {@link PsfFigures}
+     * 1.7e-6, so the profile's shape is not the issue; the measurement is. {@link PsfFigures}
      * spreads each pixel's flux evenly over 8 × 8 parts (a second pixel box in effect), −1.49e-3 at this
      * radius, and the curve, sampled every ½ px, is interpolated linearly, −0.77e-3 more: −2.26e-3 in all,
      * as measured, reproduced by {@code testdata/scripts/derive_ee_measurement_bias.py} (numpy 1.24.2).
