@@ -39,6 +39,12 @@ class MeasureCommandTest {
      * 1e-6 leaves room for a few negative wings. Measured 9e-9. (Was 1e-5.)
      */
     static final double PSF_SUM_ATOL = 1e-6;
+    /**
+     * fwhm_arcsec against fwhm_px × scale, both read back from the JSON: the writer prints doubles with
+     * {@code Double.toString}, which round-trips (Java SE 17 API), so the two differ by a few roundings,
+     * ~1e-16 relative; 1e-12 (common practice, no source). (Was 1e-9 absolute.)
+     */
+    static final double JSON_PRODUCT_RTOL = 1e-12;
 
     @TempDir
     static Path dir;
@@ -105,7 +111,8 @@ class MeasureCommandTest {
         double scale = 206.264806 * 3.8 / 800;
         // The README rounds 648000/π/1000 to 206.264806 (9 digits): 1e-8 relative covers the rounding.
         assertEquals(scale, number(j, "plate_scale_arcsec"), 1e-8 * scale);
-        assertEquals(number(j, "fwhm_px") * number(j, "plate_scale_arcsec"), number(j, "fwhm_arcsec"), 1e-9);
+        double arcsec = number(j, "fwhm_px") * number(j, "plate_scale_arcsec");
+        assertEquals(arcsec, number(j, "fwhm_arcsec"), JSON_PRODUCT_RTOL * arcsec);
         assertEquals(9, j.split("\"column\"").length - 1, "3x3 regions");
     }
 
@@ -120,7 +127,8 @@ class MeasureCommandTest {
         CliRun t = run("measure", bare.toString());
         assertTrue(t.out().contains("arcsec unknown"), t.out());
         CliRun o = run("measure", bare.toString(), "--json", "--pixel-scale", "1.5");
-        assertEquals(number(o.out(), "fwhm_px") * 1.5, number(o.out(), "fwhm_arcsec"), 1e-9);
+        double arcsec = number(o.out(), "fwhm_px") * 1.5;
+        assertEquals(arcsec, number(o.out(), "fwhm_arcsec"), JSON_PRODUCT_RTOL * arcsec);
     }
 
     @Test
