@@ -8,7 +8,6 @@ import dev.nitid.fits.FitsWriter;
 import dev.nitid.fits.ReadOptions;
 import dev.nitid.fits.WriteOptions;
 import dev.nitid.psf.PupilPsf;
-import dev.nitid.psf.Spectrum;
 import dev.nitid.stars.BlurBudget;
 import dev.nitid.stars.BlurSplit;
 import dev.nitid.stars.FieldMap;
@@ -29,6 +28,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.Optional;
+import java.util.OptionalDouble;
 import java.util.concurrent.Callable;
 import javax.imageio.ImageIO;
 import picocli.CommandLine.Command;
@@ -84,13 +84,11 @@ public final class MeasureCommand implements Callable<Integer> {
             description = "Arcseconds per pixel. Default: from the WCS, else from FOCALLEN with the pixel-size keywords.")
     Double pixelScale;
 
-    @Option(names = "--focal-length", paramLabel = "MM", description = "Focal length, mm (with --pixel-size).")
-    Double focalLength;
+    @Mixin
+    OpticsOptions optics;
 
-    @Option(names = "--pixel-size", paramLabel = "UM", description = "Unbinned pixel size, µm (with --focal-length).")
-    Double pixelSize;
-
-    @Option(names = "--binning", paramLabel = "N", description = "Pixel binning (with --pixel-size). Default: 1.")
+    @Option(names = "--binning", paramLabel = "N",
+            description = "Pixel binning: each image pixel is N x N detector pixels of --pixel-size. Default: 1.")
     int binning = 1;
 
     @Option(names = "--threshold", paramLabel = "SIGMA",
@@ -104,21 +102,6 @@ public final class MeasureCommand implements Callable<Integer> {
     @Option(names = "--grid", paramLabel = "CxR", description = "Field grid, columns x rows. Default: ${DEFAULT-VALUE}.")
     String grid = "3x3";
 
-    @Option(names = "--aperture", paramLabel = "MM",
-            description = "Aperture diameter, mm. With --focal-length and --pixel-size, splits the blur into optics, "
-                    + "seeing and tracking.")
-    Double aperture;
-
-    @Option(names = "--obstruction", paramLabel = "RATIO",
-            description = "Central obstruction, diameter ratio (0 = none). Default: ${DEFAULT-VALUE}.")
-    double obstruction = 0;
-
-    @Option(names = "--wavelength", paramLabel = "NM", description = "Wavelength for the optics, nm. Default: ${DEFAULT-VALUE}.")
-    double wavelength = 550;
-
-    @Option(names = "--band", paramLabel = "LO-HI", description = "Band for the optics, nm (e.g. 500-600), instead of --wavelength.")
-    String band;
-
     @Option(names = "--max-stars", paramLabel = "N", description = "Fit at most N stars, brightest first. Default: ${DEFAULT-VALUE}.")
     int maxStars = MeasureSettings.defaults().maxStars();
 
@@ -130,7 +113,13 @@ public final class MeasureCommand implements Callable<Integer> {
             checkOutput(psfOut);
             checkOutput(plot);
             FitsImage frame = FitsReader.read(input, new ReadOptions(hdu));
-            PlateScale scale = optionScale != null ? optionScale : PlateScale.fromHeader(frame.header()).orElse(null);
+            PlateScale scale = optionScale != null ? optionScale : HeaderNumbers.plateScale(input, frame, "--pixel-scale").orElse(null);
+            if (saturation == null) {
+                OptionalDouble level = HeaderNumbers.saturation(input, frame);
+                if (level.isPresent()) {
+                    settings = settings.withSaturation(level.getAsDouble());
+                }
+            }
             StarMeasurement m = StarMeasurer.measure(frame, settings);
             PrintWriter out = spec.commandLine().getOut();
             PrintWriter err = spec.commandLine().getErr();
@@ -171,27 +160,17 @@ public final class MeasureCommand implements Callable<Integer> {
 
     /** The optics/seeing/tracking split when the optics are given, else null. */
     private BlurSplit split(StarMeasurement m, MeasureSettings settings) {
-        if (aperture == null) {
+        if (optics.aperture == null) {
             return null;
         }
-        if (focalLength == null || pixelSize == null) {
+        if (optics.focalLength == null || optics.pixelSize == null) {
             throw new IllegalArgumentException("--aperture needs --focal-length and --pixel-size to model the optics "
                     + "(give all three)");
         }
-        Spectrum spectrum = Spectrum.monochromatic(wavelength);
-        if (band != null) {
-            String[] b = band.split("-");
-            try {
-                spectrum = Spectrum.band(Double.parseDouble(b[0].trim()), Double.parseDouble(b[1].trim()));
-            } catch (RuntimeException e) {
-                throw new IllegalArgumentException("--band is '" + band + "' (give two wavelengths in nm, e.g. 500-600)");
-            }
-        }
-        double pix = pixelSize * binning;
-        PupilPsf optics = PupilPsf.of(aperture, focalLength, pix, spectrum).withObstruction(obstruction);
-        double scale = PlateScale.fromOptics(pixelSize, focalLength, binning, "optics").arcsecPerPixel();
+        PupilPsf pupil = optics.pupil(optics.aperture, optics.focalLength, optics.pixelSize * binning);
+        double scale = PlateScale.fromOptics(optics.pixelSize, optics.focalLength, binning, "optics").arcsecPerPixel();
         int radius = Math.max(settings.stampRadius(), (int) Math.ceil(3 * m.best().fwhmMajor()));
-        return BlurBudget.split(m.best(), optics, scale, settings.sampling(), radius);
+        return BlurBudget.split(m.best(), pupil, scale, settings.sampling(), radius);
     }
 
     private MeasureSettings settings() {
@@ -208,6 +187,13 @@ public final class MeasureCommand implements Callable<Integer> {
         if (g.length != 2 || cols < 1 || rows < 1) {
             throw new IllegalArgumentException("--grid is '" + grid + "' (give columns x rows, e.g. 3x3)");
         }
+        if (optics.aperture == null && optics.givenApertureOption() != null) {
+            throw new IllegalArgumentException(optics.givenApertureOption() + " describes the optics of the blur split, "
+                    + "which needs --aperture (add --aperture with --focal-length and --pixel-size, or remove it)");
+        }
+        if (binning < 1) {
+            throw new IllegalArgumentException("--binning is " + binning + " (give 1 or more)");
+        }
         if (saturation != null && !Double.isFinite(saturation)) {
             throw new IllegalArgumentException("--saturation is " + saturation + " (give a pixel value)");
         }
@@ -220,6 +206,8 @@ public final class MeasureCommand implements Callable<Integer> {
         if (pixelScale != null) {
             return new PlateScale(pixelScale, "--pixel-scale");
         }
+        Double focalLength = optics.focalLength;
+        Double pixelSize = optics.pixelSize;
         if (focalLength != null || pixelSize != null) {
             if (focalLength == null || pixelSize == null) {
                 throw new IllegalArgumentException("--focal-length and --pixel-size go together (give both, or "

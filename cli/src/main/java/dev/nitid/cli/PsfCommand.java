@@ -7,7 +7,7 @@ import dev.nitid.fits.WriteOptions;
 import dev.nitid.image.Image;
 import dev.nitid.psf.PsfFigures;
 import dev.nitid.psf.PsfModel;
-import dev.nitid.psf.PsfParameter;
+import dev.nitid.psf.PsfHeader;
 import dev.nitid.psf.PsfPreview;
 import java.awt.image.BufferedImage;
 import java.io.IOException;
@@ -16,8 +16,6 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Locale;
 import java.util.concurrent.Callable;
-import java.util.concurrent.ExecutionException;
-import java.util.concurrent.ForkJoinPool;
 import javax.imageio.ImageIO;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -79,10 +77,10 @@ public final class PsfCommand implements Callable<Integer> {
                         "the preview file exists (add --overwrite to replace it, or choose another name)");
             }
             long t0 = System.nanoTime();
-            Image image = render(model, side, os, common.threads());
+            Image image = model.render(side, os, 0, 0);
             PsfFigures figures = PsfFigures.of(image, model);
             double seconds = (System.nanoTime() - t0) / 1e9;
-            FitsHeader header = header(model, figures, side, os)
+            FitsHeader header = PsfHeader.of(model, figures, side, os, "nitid " + NitidCommand.toolVersion() + " psf")
                     .withHistory("command: nitid " + String.join(" ", spec.commandLine().getParseResult().originalArgs()));
             FitsWriter.write(output, image, header, WriteOptions.defaults().withOverwrite(overwrite));
             if (preview != null) {
@@ -138,24 +136,6 @@ public final class PsfCommand implements Callable<Integer> {
         return psf.side(size, "--size");
     }
 
-    /** Renders inside a pool of {@code threads} workers (the pupil FFT spreads over the pool it runs in). */
-    static Image render(PsfModel model, int size, int os, int threads) throws InterruptedException {
-        ForkJoinPool pool = new ForkJoinPool(threads);
-        try {
-            return pool.submit(() -> model.render(size, os, 0, 0)).get();
-        } catch (ExecutionException e) {
-            if (e.getCause() instanceof RuntimeException r) {
-                throw r;
-            }
-            if (e.getCause() instanceof Error err) {
-                throw err;
-            }
-            throw new IllegalStateException(e.getCause());
-        } finally {
-            pool.shutdown();
-        }
-    }
-
     private void writePreview(PsfModel model, Image image, PsfFigures figures) throws FitsException {
         BufferedImage pic = PsfPreview.draw(image, figures, title(model));
         try {
@@ -175,54 +155,5 @@ public final class PsfCommand implements Callable<Integer> {
 
     static String title(PsfModel model) {
         return model.description();
-    }
-
-    /** Every model parameter, the rendering settings, the derived figures and HISTORY (keywords in docs/psf.md). */
-    static FitsHeader header(PsfModel model, PsfFigures f, int size, int os) {
-        FitsHeader h = FitsHeader.empty();
-        for (PsfParameter p : model.parameters()) {
-            Object v = p.value();
-            if (v instanceof Double d) {
-                h = h.with(p.key(), d, p.comment());
-            } else if (v instanceof Long l) {
-                h = h.with(p.key(), l, p.comment());
-            } else if (v instanceof Boolean b) {
-                h = h.with(p.key(), b, p.comment());
-            } else {
-                h = h.with(p.key(), (String) v, p.comment());
-            }
-        }
-        h = h.with("PSFSIZE", (long) size, "[px] PSF image side (odd; centre pixel is the PSF centre)")
-                .with("OVERSAMP", (long) os, "sub-pixels per pixel per axis (1 = point sampled)")
-                .with("PSFSUM", 1.0, "the image is normalised to sum 1");
-        if (Double.isFinite(f.fwhmPx())) {
-            h = h.with("FWHM", f.fwhmPx(), "[px] FWHM measured on this image")
-                    .with("FWHMMAJ", f.fwhmMajorPx(), "[px] measured major-axis FWHM")
-                    .with("FWHMMIN", f.fwhmMinorPx(), "[px] measured minor-axis FWHM")
-                    .with("FWHMANG", f.angleDeg(), "[deg] measured major-axis angle from +x to +y");
-        }
-        if (Double.isFinite(f.r50Px())) {
-            h = h.with("R50", f.r50Px(), "[px] radius holding 50% of the flux");
-        }
-        if (Double.isFinite(f.r80Px())) {
-            h = h.with("R80", f.r80Px(), "[px] radius holding 80% of the flux");
-        }
-        if (f.fwhmArcsec().isPresent() && Double.isFinite(f.fwhmPx())) {
-            h = h.with("FWHMAS", f.fwhmArcsec().getAsDouble(), "[arcsec] measured FWHM");
-        }
-        if (f.plateScaleArcsec().isPresent()) {
-            h = h.with("PLTSCALE", f.plateScaleArcsec().getAsDouble(), "[arcsec/px] 206.264806*PIXSIZE/FOCALLEN");
-        }
-        if (f.strehl().isPresent()) {
-            h = h.with("STREHL", f.strehl().getAsDouble(), "optical Strehl ratio (aberrations, no seeing)");
-        }
-        if (f.pixelOverNyquist().isPresent()) {
-            h = h.with("NYQRATIO", f.pixelOverNyquist().getAsDouble(), "pixel / Nyquist pixel lambda_min/(2D)")
-                    .with("UNDERSMP", f.undersampled(), "T if the pixel exceeds the Nyquist pixel");
-        }
-        h = h.withHistory("nitid " + NitidCommand.toolVersion() + " psf: " + title(model))
-                .withHistory("PSF rendered on " + size + "x" + size + " px, " + os + "x" + os
-                        + " sub-pixels per pixel, normalised to sum 1");
-        return h;
     }
 }

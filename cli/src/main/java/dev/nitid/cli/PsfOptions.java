@@ -1,24 +1,22 @@
 package dev.nitid.cli;
 
+import dev.nitid.psf.ConvolvedPsf;
 import dev.nitid.psf.GaussianPsf;
 import dev.nitid.psf.MoffatPsf;
 import dev.nitid.psf.PsfModel;
 import dev.nitid.psf.Psfs;
-import dev.nitid.psf.PupilPsf;
 import dev.nitid.psf.Seeing;
 import dev.nitid.psf.Spectrum;
-import dev.nitid.psf.Zernike;
 import java.util.Locale;
-import java.util.Map;
-import java.util.TreeMap;
 import picocli.CommandLine.Option;
 
 /**
  * The PSF model options shared by {@code nitid psf}, {@code nitid sharpen} and {@code nitid simulate}
- * (mix in with {@code @Mixin PsfOptions psf;}). Parsing only: {@link #toModel()} builds the core model and
- * every rule about which options go together lives there, in one place.
+ * (mix in with {@code @Mixin PsfOptions psf;}): the telescope options of {@link OpticsOptions} plus the
+ * model family, the analytic shapes, seeing, jitter and oversampling. Parsing only: {@link #toModel()}
+ * builds the core model and every rule about which options go together lives there, in one place.
  */
-public final class PsfOptions {
+public final class PsfOptions extends OpticsOptions {
 
     /** PSF model families selectable with {@code --model}. */
     public enum Family {
@@ -32,8 +30,6 @@ public final class PsfOptions {
 
     /** Default Moffat β when {@code --beta} is not given: 4.765, Kolmogorov seeing (Trujillo et al. 2001). */
     static final double DEFAULT_BETA = MoffatPsf.KOLMOGOROV_BETA;
-    /** Default wavelength for {@code --model airy} without {@code --wavelength} or {@code --band}, nm. */
-    static final double DEFAULT_WAVELENGTH_NM = 550;
     /** Largest automatic stamp side, pixels. */
     static final int MAX_AUTO_SIZE = 1025;
 
@@ -56,43 +52,6 @@ public final class PsfOptions {
     @Option(names = "--angle", paramLabel = "DEG",
             description = "Major-axis angle in degrees from +x towards +y (gaussian, moffat; default 0).")
     Double angle;
-
-    @Option(names = "--aperture", paramLabel = "MM", description = "Aperture diameter in mm (airy).")
-    Double aperture;
-
-    @Option(names = "--obstruction", paramLabel = "RATIO",
-            description = "Central obstruction diameter over aperture diameter, 0 <= ratio < 1 (airy; default 0).")
-    Double obstruction;
-
-    @Option(names = "--vanes", paramLabel = "N", description = "Number of spider vanes (airy; default 0).")
-    Integer vanes;
-
-    @Option(names = "--vane-width", paramLabel = "MM", description = "Width of each vane in mm (airy, with --vanes).")
-    Double vaneWidth;
-
-    @Option(names = "--vane-angle", paramLabel = "DEG",
-            description = "Angle of the first vane in degrees from +x towards +y (airy; default 0).")
-    Double vaneAngle;
-
-    @Option(names = "--focal-length", paramLabel = "MM",
-            description = "Focal length in mm (airy; with --pixel-size it sets the plate scale for --seeing).")
-    Double focalLength;
-
-    @Option(names = "--pixel-size", paramLabel = "UM", description = "Detector pixel pitch in micrometres.")
-    Double pixelSize;
-
-    @Option(names = "--wavelength", paramLabel = "NM",
-            description = "Wavelength in nm (airy; default 550 unless --band is given).")
-    Double wavelength;
-
-    @Option(names = "--band", paramLabel = "NM-NM",
-            description = "Flat band in nm, e.g. 500-600, summed over at least 5 wavelengths with equal photon weights (airy).")
-    String band;
-
-    @Option(names = "--zernike", paramLabel = "J=W,...",
-            description = "Aberrations as Noll index = waves RMS, e.g. 4=0.10,6=0.05 (4 defocus, 5-6 astigmatism, "
-                    + "7-8 coma, 9-10 trefoil, 11 spherical; airy).")
-    String zernike;
 
     @Option(names = "--seeing", paramLabel = "ARCSEC",
             description = "Seeing FWHM in arcsec convolved onto the model (needs --focal-length and --pixel-size).")
@@ -160,13 +119,7 @@ public final class PsfOptions {
                 double d = need("--aperture", aperture, "the aperture diameter in mm, e.g. --aperture 200");
                 double f = need("--focal-length", focalLength, "the focal length in mm, e.g. --focal-length 1000");
                 double p = need("--pixel-size", pixelSize, "the pixel pitch in micrometres, e.g. --pixel-size 3.76");
-                int n = vanes == null ? 0 : vanes;
-                if (n > 0 && vaneWidth == null) {
-                    throw new IllegalArgumentException("--vanes " + n + " needs --vane-width (the width of one vane in mm)");
-                }
-                yield new PupilPsf(d, obstruction == null ? 0 : obstruction, n, n > 0 ? vaneWidth : 0,
-                        vaneAngle == null ? 0 : vaneAngle, f, p, spectrum(), parseZernike(zernike),
-                        PupilPsf.DEFAULT_PUPIL_SAMPLES);
+                yield pupil(d, f, p);
             }
         };
         double scale = Double.NaN;
@@ -189,7 +142,8 @@ public final class PsfOptions {
         } else if (seeingProfile != null) {
             throw new IllegalArgumentException("--seeing-profile needs --seeing (the seeing FWHM in arcsec)");
         }
-        return Psfs.withSeeingAndJitter(base, s, jitter == null ? 0 : jitter, scale);
+        PsfModel blurred = Psfs.withSeeingAndJitter(base, s, jitter == null ? 0 : jitter, scale);
+        return blurred instanceof ConvolvedPsf c ? c.withThreads(threads()) : blurred;
     }
 
     /**
@@ -239,47 +193,6 @@ public final class PsfOptions {
         }
         int h = (int) Math.min(MAX_AUTO_SIZE / 2, Math.max(3, Math.ceil(half)));
         return 2 * h + 1;
-    }
-
-    Spectrum spectrum() {
-        if (band != null && wavelength != null) {
-            throw new IllegalArgumentException("--wavelength and --band both given (give one: a single wavelength or a band)");
-        }
-        if (band != null) {
-            String[] parts = band.trim().split("-");
-            try {
-                if (parts.length != 2) {
-                    throw new NumberFormatException();
-                }
-                return Spectrum.band(Double.parseDouble(parts[0].trim()), Double.parseDouble(parts[1].trim()));
-            } catch (NumberFormatException e) {
-                throw new IllegalArgumentException("--band is '" + band + "' (give two wavelengths in nm, e.g. --band 500-600)");
-            }
-        }
-        return Spectrum.monochromatic(wavelength == null ? DEFAULT_WAVELENGTH_NM : wavelength);
-    }
-
-    static Zernike parseZernike(String text) {
-        if (text == null || text.isBlank()) {
-            return Zernike.none();
-        }
-        Map<Integer, Double> m = new TreeMap<>();
-        for (String item : text.split(",")) {
-            String[] kv = item.split("=");
-            try {
-                if (kv.length != 2) {
-                    throw new NumberFormatException();
-                }
-                int j = Integer.parseInt(kv[0].trim());
-                if (m.put(j, Double.parseDouble(kv[1].trim())) != null) {
-                    throw new IllegalArgumentException("--zernike gives index " + j + " twice (give each index once)");
-                }
-            } catch (NumberFormatException e) {
-                throw new IllegalArgumentException("--zernike item '" + item.trim()
-                        + "' is not INDEX=WAVES (e.g. --zernike 4=0.10,6=0.05)");
-            }
-        }
-        return Zernike.of(m);
     }
 
     private void refuseOptics() {

@@ -9,8 +9,6 @@ import dev.nitid.quality.ObservedQuality;
 import dev.nitid.quality.QualityReport;
 import dev.nitid.quality.QualitySettings;
 import dev.nitid.quality.StarSite;
-import dev.nitid.stars.BackgroundMap;
-import dev.nitid.stars.BackgroundSettings;
 import dev.nitid.stars.MeasureSettings;
 import dev.nitid.stars.PlateScale;
 import dev.nitid.stars.PsfSource;
@@ -123,6 +121,9 @@ public final class SharpenCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "IN.fits", description = "The image to sharpen (one plane or a colour cube).")
     Path input;
 
+    /** The saturation level from the option or the header, read once right after the input. */
+    private OptionalDouble headerSaturation = OptionalDouble.empty();
+
     @Option(names = "--psf", paramLabel = "PSF.fits",
             description = "The PSF: one plane for all image planes, or a cube with one PSF per plane. Its centre is "
                     + "pixel (floor(w/2), floor(h/2)); it is normalised to unit sum. Default: measured from the "
@@ -193,6 +194,9 @@ public final class SharpenCommand implements Callable<Integer> {
             checkSideOutput(preview);
             checkSideOutput(report);
             FitsImage in = FitsReader.read(input, new ReadOptions(-1, WORKING_COPIES));
+            headerSaturation = saturation != null ? OptionalDouble.of(saturation) : HeaderNumbers.saturation(input, in);
+            Optional<PlateScale> headerScale = model.focalLength != null && model.pixelSize != null
+                    ? Optional.empty() : HeaderNumbers.plateScale(input, in, "--focal-length with --pixel-size");
             stages.mark("read");
             RestoreSettings s = settings(in);
             PsfChoice psf = psf(in);
@@ -219,13 +223,13 @@ public final class SharpenCommand implements Callable<Integer> {
             Optional<PlateScale> scale = model.focalLength != null && model.pixelSize != null
                     ? Optional.of(PlateScale.fromOptics(model.pixelSize, model.focalLength, 1,
                             "--focal-length and --pixel-size"))
-                    : PlateScale.fromHeader(in.header());
+                    : headerScale;
             FitsHeader h = header(in.header(), s, r, psf, f);
             WriteReport wr = FitsWriter.write(out, r.image(), h,
                     WriteOptions.defaults().withOverwrite(overwrite).withProtectedInputs(protectedInputs()));
             stages.mark("write");
             if (preview != null) {
-                writePreview(in.image(), r.image(), check, s.threads());
+                writePreview(in.image(), r.image(), check);
                 stages.mark("preview");
             }
             double seconds = (System.nanoTime() - start) / 1e9;
@@ -317,14 +321,15 @@ public final class SharpenCommand implements Callable<Integer> {
         }
     }
 
-    private void writePreview(Image before, Image after, ObservedQuality check, int threads) throws FitsException {
+    private void writePreview(Image before, Image after, ObservedQuality check) throws FitsException {
         Image lum = StarMeasurer.luminance(before);
         AsinhStretch stretch = AsinhStretch.forSky(lum.stats(0));
         List<int[]> crops = new ArrayList<>();
         for (StarSite st : check.fwhmStars().subList(0, Math.min(3, check.fwhmStars().size()))) {
             crops.add(new int[] {(int) Math.round(st.x()), (int) Math.round(st.y())});
         }
-        crops.add(faintRegion(lum, threads));
+        StarSite faint = check.faintRegion(FAINT_SIGMA, ComparisonPreview.CROP);
+        crops.add(new int[] {(int) faint.x(), (int) faint.y()});
         BufferedImage img = ComparisonPreview.draw(before, after, stretch, crops,
                 "nitid sharpen " + input.getFileName() + "  (left: input, right: restored, same stretch)");
         try {
@@ -333,30 +338,6 @@ public final class SharpenCommand implements Callable<Integer> {
             throw new FitsException(FitsException.Kind.WRITE_FAILED, preview, -1, null,
                     "could not be written: " + e.getMessage() + " (check the folder and free space)");
         }
-    }
-
-    /**
-     * The centre of the mesh cell whose smooth background is closest to {@value #FAINT_SIGMA} sky σ above the
-     * sky: faint extended light if there is any, else plain sky.
-     */
-    private static int[] faintRegion(Image lum, int threads) {
-        BackgroundMap map = BackgroundMap.estimate(lum.plane(0), lum.width(), lum.height(),
-                BackgroundSettings.defaults(), Math.max(1, threads));
-        double target = map.globalLevel() + FAINT_SIGMA * map.globalNoise();
-        int step = Math.max(1, map.meshSize());
-        int[] best = {lum.width() / 2, lum.height() / 2};
-        double closest = Double.POSITIVE_INFINITY;
-        int margin = ComparisonPreview.CROP;
-        for (int y = Math.min(margin, lum.height() / 2); y < lum.height() - margin; y += step) {
-            for (int x = Math.min(margin, lum.width() / 2); x < lum.width() - margin; x += step) {
-                double miss = Math.abs(map.levelAt(x, y) - target);
-                if (miss < closest) {
-                    closest = miss;
-                    best = new int[] {x, y};
-                }
-            }
-        }
-        return best;
     }
 
     /** Writes a PNG through a temporary file in the same folder, so no partial file is left. */
@@ -527,8 +508,7 @@ public final class SharpenCommand implements Callable<Integer> {
             case pixels -> StarProtection.skyFloor();
             case none -> StarProtection.none();
         });
-        OptionalDouble level = saturation != null ? OptionalDouble.of(saturation)
-                : StarMeasurer.saturationLevel(in.header(), in.bitpix());
+        OptionalDouble level = headerSaturation;
         if (level.isPresent()) {
             s = s.withSaturation(level.getAsDouble());
         }

@@ -302,7 +302,7 @@ public final class SimulateCommand implements Callable<Integer> {
                 h = h.with(p.key(), String.valueOf(v), p.comment());
             }
         }
-        return h.with("OVERSAMP", (long) psfOptions.oversample(), "sub-pixels per pixel per axis (1 = point sampled)");
+        return h.with("SUBPIXEL", (long) psfOptions.oversample(), "sub-pixels per pixel per axis (1 = point sampled)");
     }
 
     static int[] parseSize(String s) {
@@ -366,7 +366,15 @@ public final class SimulateCommand implements Callable<Integer> {
         }
         if (!Double.isNaN(pixelScale)) {
             // Linear WCS (Greisen & Calabretta 2002, A&A 395, 1061): x grows to the west, hence CDELT1 < 0.
-            h = h.with("CRPIX1", (s.width() + 1) / 2.0, "reference pixel: field centre")
+            // The field is invented and has no sky position, so the axes are plain linear offsets from the
+            // field centre (CTYPEi not in the 4-3 projection form, §2.1.1) rather than a projection whose
+            // reference point would have to be made up; written complete so that checkers find every
+            // WCS keyword of both axes.
+            h = h.with("CTYPE1", "LINEAR", "offset from the field centre along x (no sky position)")
+                    .with("CTYPE2", "LINEAR", "offset from the field centre along y (no sky position)")
+                    .with("CRVAL1", 0.0, "[deg] offset at the reference pixel")
+                    .with("CRVAL2", 0.0, "[deg] offset at the reference pixel")
+                    .with("CRPIX1", (s.width() + 1) / 2.0, "reference pixel: field centre")
                     .with("CRPIX2", (s.height() + 1) / 2.0, "reference pixel: field centre")
                     .with("CDELT1", -pixelScale / 3600, "[deg] pixel scale along x")
                     .with("CDELT2", pixelScale / 3600, "[deg] pixel scale along y")

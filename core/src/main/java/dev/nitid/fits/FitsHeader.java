@@ -6,6 +6,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Optional;
 import java.util.OptionalDouble;
+import java.util.regex.Pattern;
 
 /**
  * An immutable, ordered FITS header: the cards of one HDU in file order. Every {@code with…} method returns
@@ -87,25 +88,67 @@ public final class FitsHeader {
     }
 
     /**
-     * The numeric value of the first card with this key. FITS allows {@code D} as exponent letter
-     * (FITS 4.0 §4.2.4); it is accepted.
+     * The numeric value of the first card with this key, read leniently: empty both when the card is absent
+     * and when its value is not a number. Where a malformed value must not pass for a missing one (a
+     * saturation level, a plate scale), ask {@link #malformedNumber(String)} too.
      *
      * @param key keyword, any case
-     * @return the value, or empty if absent, without value, a string or not a number
+     * @return the value, or empty if absent, without value, a string, a logical or not a number
+     * @see #parseNumber(String) the number format accepted
      */
     public OptionalDouble getDouble(String key) {
         Optional<Card> c = card(key);
         if (c.isEmpty() || c.get().value() == null || c.get().isString()) {
             return OptionalDouble.empty();
         }
-        String t = c.get().value().trim().replace('D', 'E').replace('d', 'e');
-        try {
-            double v = Double.parseDouble(t);
-            return Double.isFinite(v) ? OptionalDouble.of(v) : OptionalDouble.empty();
-        } catch (NumberFormatException e) {
+        return parseNumber(c.get().value());
+    }
+
+    /**
+     * The value of the first card with this key as written, when the card has a value that is not a FITS
+     * number ({@link #parseNumber(String)}): a string ({@code 'abc'}), a logical ({@code T}), or text such as
+     * {@code 12,5}. This is what tells a malformed number from a missing one: {@link #getDouble(String)} is
+     * empty for both.
+     *
+     * @param key keyword, any case
+     * @return the offending value text (quotes kept), or empty when the key is absent, its value field is
+     *         blank (an undefined value, FITS Standard 4.0 §4.1.2.3), or it holds a number
+     */
+    public Optional<String> malformedNumber(String key) {
+        Optional<Card> c = card(key);
+        if (c.isEmpty() || c.get().value() == null || c.get().value().isBlank()) {
+            return Optional.empty();
+        }
+        String v = c.get().value();
+        return !c.get().isString() && parseNumber(v).isPresent() ? Optional.empty() : Optional.of(v.trim());
+    }
+
+    /**
+     * Reads FITS number text: an integer (FITS Standard 4.0 §4.2.3: optional sign, decimal digits) or a
+     * real floating-point number (§4.2.4: optional sign, digits with an optional decimal point, an optional
+     * exponent introduced by {@code E} or {@code D}); leading and trailing spaces are ignored, embedded
+     * spaces are not. Lower-case {@code e}/{@code d} are accepted as well (lenient; the standard asks for
+     * upper case). Java-only forms that {@link Double#parseDouble} would take ({@code NaN},
+     * {@code Infinity}, hexadecimal, a trailing {@code f}) are not FITS numbers and are refused, as is a
+     * value too large for a double.
+     *
+     * @param text the value text of a card
+     * @return the number, or empty if the text is not a finite FITS number
+     */
+    public static OptionalDouble parseNumber(String text) {
+        if (text == null) {
             return OptionalDouble.empty();
         }
+        String t = text.trim();
+        if (!NUMBER.matcher(t).matches()) {
+            return OptionalDouble.empty();
+        }
+        double v = Double.parseDouble(t.replace('D', 'E').replace('d', 'e'));
+        return Double.isFinite(v) ? OptionalDouble.of(v) : OptionalDouble.empty();
     }
+
+    /** FITS Standard 4.0 §4.2.3–4.2.4 number text (see {@link #parseNumber(String)}). */
+    private static final Pattern NUMBER = Pattern.compile("[+-]?(\\d+\\.?\\d*|\\.\\d+)([EeDd][+-]?\\d+)?");
 
     /**
      * Sets a string-valued card.

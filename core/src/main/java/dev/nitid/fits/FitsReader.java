@@ -9,10 +9,12 @@ import java.io.BufferedInputStream;
 import java.io.EOFException;
 import java.io.IOException;
 import java.io.InputStream;
+import java.math.BigInteger;
 import java.nio.file.AccessDeniedException;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
+import java.util.OptionalDouble;
 import java.util.zip.GZIPInputStream;
 import java.util.zip.ZipException;
 import nom.tam.util.FitsInputStream;
@@ -214,27 +216,43 @@ public final class FitsReader {
         double zero = number(file, hdu, "BZERO", 0.0);
         Long blank = null;
         if (hdu.bitpix() > 0 && hdu.card("BLANK") != null) {
-            blank = (long) number(file, hdu, "BLANK", 0.0);
+            double b = number(file, hdu, "BLANK", Double.NaN);
+            // BLANK names a stored integer value (FITS Standard 4.0 §4.4.2.5), so it must be an integer
+            // (§4.2.3) within the range of the data type; 3.5 or 1E30 would silently match no pixel.
+            if (!Double.isNaN(b)) {
+                int bits = hdu.bitpix();
+                BigInteger max = bits == 8 ? BigInteger.valueOf(255) : BigInteger.ONE.shiftLeft(bits - 1).subtract(BigInteger.ONE);
+                BigInteger min = bits == 8 ? BigInteger.ZERO : BigInteger.ONE.shiftLeft(bits - 1).negate();
+                String text = hdu.card("BLANK").getValue().trim();
+                BigInteger v = text.matches("[+-]?\\d+") ? new BigInteger(text.startsWith("+") ? text.substring(1) : text) : null;
+                if (v == null || v.compareTo(min) < 0 || v.compareTo(max) > 0) {
+                    throw new FitsException(Kind.BAD_DATA, file, hdu.index(), "BLANK", "BLANK is '" + text
+                            + "', not an integer from " + min + " to " + max + " as BITPIX " + bits
+                            + " needs (FITS Standard 4.0 §4.4.2.5) (fix or remove the card with a header editor)");
+                }
+                blank = v.longValue();
+            }
         }
         return new Quantizer(scale, zero, blank);
     }
 
+    /**
+     * A structural number card: its value, the default when absent or blank, and a {@link Kind#BAD_DATA}
+     * problem when the value is not a FITS number ({@link FitsHeader#parseNumber}): guessing a scale
+     * would silently change every pixel.
+     */
     private static double number(Path file, HduInfo hdu, String key, double dflt) throws FitsException {
         var card = hdu.card(key);
         if (card == null || card.getValue() == null || card.getValue().isBlank()) {
             return dflt;
         }
-        String v = card.getValue().trim().replace('D', 'E').replace('d', 'e');
-        try {
-            double d = Double.parseDouble(v);
-            if (Double.isFinite(d) && !card.isStringValue()) {
-                return d;
-            }
-        } catch (NumberFormatException e) {
-            // reported below
+        OptionalDouble d = card.isStringValue() ? OptionalDouble.empty() : FitsHeader.parseNumber(card.getValue());
+        if (d.isPresent()) {
+            return d.getAsDouble();
         }
         throw new FitsException(Kind.BAD_DATA, file, hdu.index(), key, key + " is '" + card.getValue().trim()
-                + "', not a finite number (fix or remove the card with a header editor)");
+                + "', not a finite number (FITS Standard 4.0 §4.2.3-4.2.4) (fix or remove the card with a header "
+                + "editor)");
     }
 
     /** Reads the data unit row by row into the image; returns the count of non-finite pixels. */

@@ -24,9 +24,11 @@ import java.util.OptionalDouble;
  * @param kernels blur kernels in pixels (at least one)
  * @param blurParameters header parameters describing the blur (seeing, jitter)
  * @param plateScale     arcsec per pixel if known (NaN otherwise), reported by {@link #plateScaleArcsec()}
+ * @param threads        worker threads of the convolution, ≥ 1 (the base renders with its own settings;
+ *                       the result does not depend on it, {@link Convolver})
  */
 public record ConvolvedPsf(PsfModel base, List<AnalyticPsf> kernels, List<PsfParameter> blurParameters,
-                           double plateScale) implements PsfModel {
+                           double plateScale, int threads) implements PsfModel {
 
     /**
      * Margin around the stamp in kernel FWHMs: a β = 4.765 Moffat holds 1 − 1.2e-4 of its flux within 4 FWHM
@@ -44,6 +46,30 @@ public record ConvolvedPsf(PsfModel base, List<AnalyticPsf> kernels, List<PsfPar
         }
         kernels = List.copyOf(kernels);
         blurParameters = blurParameters == null ? List.of() : List.copyOf(blurParameters);
+        if (threads < 1) {
+            throw new IllegalArgumentException("threads " + threads + " must be at least 1");
+        }
+    }
+
+    /**
+     * A blurred PSF whose convolution uses all available processors.
+     *
+     * @param base           the model to blur
+     * @param kernels        blur kernels in pixels (at least one)
+     * @param blurParameters header parameters describing the blur
+     * @param plateScale     arcsec per pixel if known, else NaN
+     */
+    public ConvolvedPsf(PsfModel base, List<AnalyticPsf> kernels, List<PsfParameter> blurParameters,
+                        double plateScale) {
+        this(base, kernels, blurParameters, plateScale, Runtime.getRuntime().availableProcessors());
+    }
+
+    /**
+     * @param n worker threads of the convolution, ≥ 1
+     * @return this PSF convolved with {@code n} threads (the base keeps its own settings)
+     */
+    public ConvolvedPsf withThreads(int n) {
+        return new ConvolvedPsf(base, kernels, blurParameters, plateScale, n);
     }
 
     @Override
@@ -60,7 +86,7 @@ public record ConvolvedPsf(PsfModel base, List<AnalyticPsf> kernels, List<PsfPar
         float[] work = fine.plane(0);
         int h = pad * oversample;
         if (h > 0) {
-            ConvolutionSettings zero = ConvolutionSettings.defaults().withBoundary(Boundary.ZERO);
+            ConvolutionSettings zero = ConvolutionSettings.defaults().withBoundary(Boundary.ZERO).withThreads(threads);
             // Blur the kernels into one on the margin's support first (small), then convolve the stamp once.
             Image ker = sampleKernel(kernels.get(0), h, oversample);
             int kn = 2 * h + 1;

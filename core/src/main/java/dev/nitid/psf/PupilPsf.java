@@ -38,10 +38,12 @@ import java.util.OptionalDouble;
  * @param spectrum      wavelengths and photon weights
  * @param zernike       aberrations, waves RMS (Noll 4–11)
  * @param pupilSamples  fewest samples across the pupil diameter, 32 … 4096
+ * @param threads       worker threads for rendering, ≥ 1 (how the work is run, not what the PSF is: renders are
+ *                      identical bit for bit whatever the count; {@link #parameters()} leaves it out)
  */
 public record PupilPsf(double apertureMm, double obstruction, int vanes, double vaneWidthMm, double vaneAngleDeg,
                        double focalLengthMm, double pixelSizeUm, Spectrum spectrum, Zernike zernike,
-                       int pupilSamples) implements PsfModel {
+                       int pupilSamples, int threads) implements PsfModel {
 
     /** Arcseconds per radian, 648000/π. */
     public static final double ARCSEC_PER_RADIAN = 648000 / Math.PI;
@@ -83,6 +85,30 @@ public record PupilPsf(double apertureMm, double obstruction, int vanes, double 
         if (pupilSamples < 32 || pupilSamples > 4096) {
             throw new IllegalArgumentException("pupil samples " + pupilSamples + " must be between 32 and 4096");
         }
+        if (threads < 1) {
+            throw new IllegalArgumentException("threads " + threads + " must be at least 1 (use "
+                    + "Runtime.getRuntime().availableProcessors() for all of them)");
+        }
+    }
+
+    /**
+     * A pupil rendered with all available processors ({@link Runtime#availableProcessors()}).
+     *
+     * @param apertureMm    aperture diameter D, mm
+     * @param obstruction   central obstruction ratio ε
+     * @param vanes         number of spider vanes
+     * @param vaneWidthMm   vane width, mm
+     * @param vaneAngleDeg  angle of the first vane, degrees
+     * @param focalLengthMm focal length f, mm
+     * @param pixelSizeUm   detector pixel pitch p, µm
+     * @param spectrum      wavelengths and photon weights
+     * @param zernike       aberrations, waves RMS (Noll 4–11)
+     * @param pupilSamples  fewest samples across the pupil diameter
+     */
+    public PupilPsf(double apertureMm, double obstruction, int vanes, double vaneWidthMm, double vaneAngleDeg,
+                    double focalLengthMm, double pixelSizeUm, Spectrum spectrum, Zernike zernike, int pupilSamples) {
+        this(apertureMm, obstruction, vanes, vaneWidthMm, vaneAngleDeg, focalLengthMm, pixelSizeUm, spectrum, zernike,
+                pupilSamples, Runtime.getRuntime().availableProcessors());
     }
 
     /**
@@ -118,37 +144,46 @@ public record PupilPsf(double apertureMm, double obstruction, int vanes, double 
     /** @return this pupil with another central obstruction ratio */
     public PupilPsf withObstruction(double eps) {
         return new PupilPsf(apertureMm, eps, vanes, vaneWidthMm, vaneAngleDeg, focalLengthMm, pixelSizeUm, spectrum,
-                zernike, pupilSamples);
+                zernike, pupilSamples, threads);
     }
 
     /** @return this pupil with {@code count} vanes of the given width (mm), the first at {@code angleDeg} */
     public PupilPsf withVanes(int count, double widthMm, double angleDeg) {
         return new PupilPsf(apertureMm, obstruction, count, widthMm, angleDeg, focalLengthMm, pixelSizeUm, spectrum,
-                zernike, pupilSamples);
+                zernike, pupilSamples, threads);
     }
 
     /** @return this pupil with other aberrations */
     public PupilPsf withZernike(Zernike z) {
         return new PupilPsf(apertureMm, obstruction, vanes, vaneWidthMm, vaneAngleDeg, focalLengthMm, pixelSizeUm,
-                spectrum, z, pupilSamples);
+                spectrum, z, pupilSamples, threads);
     }
 
     /** @return this pupil at other wavelengths */
     public PupilPsf withSpectrum(Spectrum s) {
         return new PupilPsf(apertureMm, obstruction, vanes, vaneWidthMm, vaneAngleDeg, focalLengthMm, pixelSizeUm,
-                s, zernike, pupilSamples);
+                s, zernike, pupilSamples, threads);
     }
 
     /** @return this pupil sampled with at least {@code n} samples across its diameter */
     public PupilPsf withPupilSamples(int n) {
         return new PupilPsf(apertureMm, obstruction, vanes, vaneWidthMm, vaneAngleDeg, focalLengthMm, pixelSizeUm,
-                spectrum, zernike, n);
+                spectrum, zernike, n, threads);
+    }
+
+    /**
+     * @param n worker threads for rendering, ≥ 1 (the render does not depend on it)
+     * @return this pupil rendered with {@code n} threads
+     */
+    public PupilPsf withThreads(int n) {
+        return new PupilPsf(apertureMm, obstruction, vanes, vaneWidthMm, vaneAngleDeg, focalLengthMm, pixelSizeUm,
+                spectrum, zernike, pupilSamples, n);
     }
 
     /** @return this pupil on another detector (focal length mm, pixel µm) */
     public PupilPsf withDetector(double focalMm, double pixelUm) {
         return new PupilPsf(apertureMm, obstruction, vanes, vaneWidthMm, vaneAngleDeg, focalMm, pixelUm,
-                spectrum, zernike, pupilSamples);
+                spectrum, zernike, pupilSamples, threads);
     }
 
     /** @return plate scale {@code 206.264806·p[µm]/f[mm]}, arcsec per pixel */
@@ -232,7 +267,7 @@ public record PupilPsf(double apertureMm, double obstruction, int vanes, double 
         int gi = (int) Math.floor(gc);
         double frac = gc - gi;
         PupilEngine.Result r = PupilEngine.render(aperture(), s, w, scale, size * oversample,
-                frac + oversample * dx, frac + oversample * dy, gi, pupilSamples);
+                frac + oversample * dx, frac + oversample * dy, gi, pupilSamples, threads);
         int n = size * oversample;
         return new Rendering(Image.wrap(n, n, r.fine()), r.fftSize(), r.refine(), r.pupilDiameter(), r.sumT(), r.sumT2());
     }
@@ -284,7 +319,7 @@ public record PupilPsf(double apertureMm, double obstruction, int vanes, double 
             p.add(PsfParameter.of("BANDLO", spectrum.edgesNm()[0], "[nm] short edge of the band"));
             p.add(PsfParameter.of("BANDHI", spectrum.edgesNm()[1], "[nm] long edge of the band"));
         }
-        p.add(PsfParameter.of("NWAVE", (long) spectrum.size(), "wavelengths summed, equal photon weights"));
+        p.add(PsfParameter.of("NLAMBDA", (long) spectrum.size(), "wavelengths summed, equal photon weights"));
         for (Map.Entry<Integer, Double> e : zernike.nonZero().entrySet()) {
             p.add(PsfParameter.of("ZERN" + e.getKey(), e.getValue(), "[waves RMS] Zernike Noll " + e.getKey()
                     + " at the band centre"));

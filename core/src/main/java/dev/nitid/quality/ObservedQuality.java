@@ -54,6 +54,7 @@ public final class ObservedQuality {
 
     private final Image input;
     private final QualitySettings settings;
+    private final BackgroundMap map;
     private final float[] background;
     private final boolean[] skyMask;
     private final List<StarSite> fwhmStars;
@@ -67,10 +68,11 @@ public final class ObservedQuality {
     /** Input aperture flux of each FWHM star (NaN where the annulus leaves the image). */
     private final double[] inputFluxes;
 
-    private ObservedQuality(Image input, QualitySettings settings, float[] background, boolean[] skyMask,
-                            List<StarSite> fwhmStars, List<StarSite> ringStars, int threads) {
+    private ObservedQuality(Image input, QualitySettings settings, BackgroundMap map, float[] background,
+                            boolean[] skyMask, List<StarSite> fwhmStars, List<StarSite> ringStars, int threads) {
         this.input = input;
         this.settings = settings;
+        this.map = map;
         this.background = background;
         this.skyMask = skyMask;
         this.threads = threads;
@@ -110,6 +112,8 @@ public final class ObservedQuality {
 
     /**
      * Builds the reference from a star measurement of the input (for example the one that gave the PSF).
+     * The measurement's background map is reused when it was estimated with
+     * {@link BackgroundSettings#defaults()} (the measurement's default), else the map is estimated here.
      *
      * @param input       the observed image, plane 0 (input, not modified)
      * @param measurement stars measured on that plane
@@ -123,8 +127,11 @@ public final class ObservedQuality {
     public static ObservedQuality of(Image input, StarMeasurement measurement, double saturation,
                                      QualitySettings settings, int threads) {
         checkSize(input, measurement);
-        BackgroundMap map = BackgroundMap.estimate(input.plane(0), input.width(), input.height(),
-                BackgroundSettings.defaults(), threads);
+        BackgroundMap held = measurement.backgroundMap();
+        BackgroundMap map = held != null && held.settings().equals(BackgroundSettings.defaults())
+                ? held
+                : BackgroundMap.estimate(input.plane(0), input.width(), input.height(), BackgroundSettings.defaults(),
+                        threads);
         return of(input, measurement, map, saturation, settings, threads);
     }
 
@@ -159,10 +166,12 @@ public final class ObservedQuality {
 
         List<Detection> det = measurement.detections();
         List<MeasuredStar> all = measurement.stars();
+        DetectionGrid grid = new DetectionGrid(det, w, h,
+                Math.max(1.0, Math.max(settings.isolationRadius(), settings.brighterRadius())));
         boolean[] keep = new boolean[all.size()];
         Parallel.forEach(all.size(), threads, (i, worker) -> {
             MeasuredStar s = all.get(i);
-            keep[i] = s.snr() >= settings.minPeakSigma() && isolated(s, det, settings)
+            keep[i] = s.snr() >= settings.minPeakSigma() && isolated(s, grid, settings)
                     && !saturated(input, s.x(), s.y(), settings.fitStamp() / 2, saturation);
         });
         List<MeasuredStar> chosen = new ArrayList<>();
@@ -235,7 +244,7 @@ public final class ObservedQuality {
             throw new IllegalArgumentException("only " + n + " star-free sky pixels in the input: the noise "
                     + "figures need at least 1000");
         }
-        return new ObservedQuality(input, settings, bg, sky, fwhmStars, ringStars, threads);
+        return new ObservedQuality(input, settings, map, bg, sky, fwhmStars, ringStars, threads);
     }
 
     private static void checkSize(Image input, StarMeasurement measurement) {
@@ -266,29 +275,88 @@ public final class ObservedQuality {
         return x >= border && y >= border && x <= w - 1 - border && y <= h - 1 - border;
     }
 
-    private static boolean isolated(MeasuredStar s, List<Detection> det, QualitySettings q) {
-        Detection self = null;
-        double best = Double.POSITIVE_INFINITY;
-        for (Detection d : det) {
-            double dist = Math.hypot(d.x() - s.x(), d.y() - s.y());
-            if (dist < best) {
-                best = dist;
-                self = d;
+    /**
+     * Detections bucketed on a grid of cells at least as large as both isolation radii, so a star's tests look at
+     * the 3×3 cells around it instead of every detection of the frame (3 000 detections × 1 000 stars at 24 MP).
+     */
+    private static final class DetectionGrid {
+        private final List<Detection> det;
+        private final double cell;
+        private final int cols;
+        private final int rows;
+        private final int[][] buckets;
+
+        DetectionGrid(List<Detection> det, int w, int h, double cell) {
+            this.det = det;
+            this.cell = cell;
+            this.cols = Math.max(1, (int) Math.ceil(w / cell) + 1);
+            this.rows = Math.max(1, (int) Math.ceil(h / cell) + 1);
+            int[] count = new int[cols * rows];
+            int[] where = new int[det.size()];
+            for (int k = 0; k < det.size(); k++) {
+                where[k] = bucket(det.get(k).x(), det.get(k).y());
+                count[where[k]]++;
+            }
+            buckets = new int[cols * rows][];
+            for (int b = 0; b < buckets.length; b++) {
+                buckets[b] = new int[count[b]];
+                count[b] = 0;
+            }
+            // In list order within each bucket.
+            for (int k = 0; k < det.size(); k++) {
+                buckets[where[k]][count[where[k]]++] = k;
             }
         }
-        if (self == null) {
+
+        private int bucket(double x, double y) {
+            int i = Math.min(cols - 1, Math.max(0, (int) Math.floor(x / cell)));
+            int j = Math.min(rows - 1, Math.max(0, (int) Math.floor(y / cell)));
+            return j * cols + i;
+        }
+    }
+
+    /**
+     * No detection within {@code isolationRadius} brighter than {@code isolationFraction} of the star's own
+     * detection, and none brighter within {@code brighterRadius}. The star's own detection is the nearest one;
+     * only detections closer than the larger radius can fail the test, so looking within it gives the same answer
+     * as looking at all (ties in distance go to the first detection in list order, as in a full scan).
+     */
+    private static boolean isolated(MeasuredStar s, DetectionGrid g, QualitySettings q) {
+        int ci = Math.min(g.cols - 1, Math.max(0, (int) Math.floor(s.x() / g.cell)));
+        int cj = Math.min(g.rows - 1, Math.max(0, (int) Math.floor(s.y() / g.cell)));
+        int selfIndex = -1;
+        double best = Double.POSITIVE_INFINITY;
+        for (int j = Math.max(0, cj - 1); j <= Math.min(g.rows - 1, cj + 1); j++) {
+            for (int i = Math.max(0, ci - 1); i <= Math.min(g.cols - 1, ci + 1); i++) {
+                for (int k : g.buckets[j * g.cols + i]) {
+                    Detection d = g.det.get(k);
+                    double dist = Math.hypot(d.x() - s.x(), d.y() - s.y());
+                    if (dist < best || (dist == best && k < selfIndex)) {
+                        best = dist;
+                        selfIndex = k;
+                    }
+                }
+            }
+        }
+        if (selfIndex < 0) {
             return true;
         }
-        for (Detection d : det) {
-            if (d == self) {
-                continue;
-            }
-            double dist = Math.hypot(d.x() - s.x(), d.y() - s.y());
-            if (dist < q.isolationRadius() && d.significance() > q.isolationFraction() * self.significance()) {
-                return false;
-            }
-            if (dist < q.brighterRadius() && d.significance() > self.significance()) {
-                return false;
+        Detection self = g.det.get(selfIndex);
+        for (int j = Math.max(0, cj - 1); j <= Math.min(g.rows - 1, cj + 1); j++) {
+            for (int i = Math.max(0, ci - 1); i <= Math.min(g.cols - 1, ci + 1); i++) {
+                for (int k : g.buckets[j * g.cols + i]) {
+                    if (k == selfIndex) {
+                        continue;
+                    }
+                    Detection d = g.det.get(k);
+                    double dist = Math.hypot(d.x() - s.x(), d.y() - s.y());
+                    if (dist < q.isolationRadius() && d.significance() > q.isolationFraction() * self.significance()) {
+                        return false;
+                    }
+                    if (dist < q.brighterRadius() && d.significance() > self.significance()) {
+                        return false;
+                    }
+                }
             }
         }
         return true;
@@ -372,6 +440,57 @@ public final class ObservedQuality {
         double noiseOut = skyNoise(output);
         QualityMetrics.TruthError none = new QualityMetrics.TruthError(Double.NaN, Double.NaN, Double.NaN, 0);
         return new QualityReport(fwhm, ring, none, none, Double.NaN, flux, inputSigma, noiseOut, noiseOut / inputSigma);
+    }
+
+    /**
+     * A place to look at faint extended light: see {@link #faintRegion(BackgroundMap, double, int)}, on the
+     * input's background map.
+     *
+     * @param sigmaAbove how many sky σ above the sky the wanted light is, ≥ 0
+     * @param margin     keep the site at least this many pixels from the edges where the image allows, ≥ 0
+     * @return the centre of the chosen mesh point
+     */
+    public StarSite faintRegion(double sigmaAbove, int margin) {
+        return faintRegion(map, sigmaAbove, margin);
+    }
+
+    /**
+     * The mesh point (cell corner on a {@code meshSize} grid) whose smooth background is closest to
+     * {@code globalLevel + sigmaAbove·globalNoise}: faint extended light (nebulosity, a galaxy's outskirts,
+     * a gradient) if the frame has any, else plain sky. Points are scanned row by row from
+     * {@code min(margin, size/2)} to {@code size − margin} and the first closest wins; the frame centre when no
+     * point fits. The mesh map already ignores stars (clipped cell medians, median-filtered), so a bright star
+     * cannot be chosen. This is the preview's faint-region crop (common practice, no source).
+     *
+     * @param background the frame's background map (input, not modified)
+     * @param sigmaAbove how many sky σ above the sky the wanted light is, ≥ 0
+     * @param margin     keep the site at least this many pixels from the edges where the image allows, ≥ 0
+     * @return the chosen point, whole pixels
+     * @throws IllegalArgumentException if sigmaAbove or margin is negative
+     */
+    public static StarSite faintRegion(BackgroundMap background, double sigmaAbove, int margin) {
+        if (!(sigmaAbove >= 0) || margin < 0) {
+            throw new IllegalArgumentException("sigmaAbove is " + sigmaAbove + " and margin " + margin
+                    + ": both must be ≥ 0 (e.g. 4 σ and half a crop)");
+        }
+        int w = background.width();
+        int h = background.height();
+        double target = background.globalLevel() + sigmaAbove * background.globalNoise();
+        int step = Math.max(1, background.meshSize());
+        int bx = w / 2;
+        int by = h / 2;
+        double closest = Double.POSITIVE_INFINITY;
+        for (int y = Math.min(margin, h / 2); y < h - margin; y += step) {
+            for (int x = Math.min(margin, w / 2); x < w - margin; x += step) {
+                double miss = Math.abs(background.levelAt(x, y) - target);
+                if (miss < closest) {
+                    closest = miss;
+                    bx = x;
+                    by = y;
+                }
+            }
+        }
+        return new StarSite(bx, by);
     }
 
     /** @return the input's sky σ (background-subtracted, see the class comment) */

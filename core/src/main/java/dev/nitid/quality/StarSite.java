@@ -1,7 +1,8 @@
 package dev.nitid.quality;
 
 /**
- * A star the metrics look at: its centre in pixel coordinates (pixel centres at integers).
+ * A place the metrics or the preview look at: a star's centre, or the centre of a region of faint light
+ * ({@link ObservedQuality#faintRegion}), in pixel coordinates (pixel centres at integers).
  *
  * @param x column of the centre
  * @param y row of the centre

@@ -1,5 +1,6 @@
 package dev.nitid.stars;
 
+import dev.nitid.stars.internal.HistogramMedian;
 import dev.nitid.stars.internal.Parallel;
 import dev.nitid.stars.internal.Select;
 
@@ -19,6 +20,7 @@ public final class BackgroundMap {
     private final int width;
     private final int height;
     private final int mesh;
+    private final BackgroundSettings settings;
     private final int cellsX;
     private final int cellsY;
     private final float[] level;
@@ -26,10 +28,12 @@ public final class BackgroundMap {
     private final double globalNoise;
     private final double globalLevel;
 
-    private BackgroundMap(int width, int height, int mesh, int cellsX, int cellsY, float[] level, float[] noise) {
+    private BackgroundMap(int width, int height, int mesh, BackgroundSettings settings, int cellsX, int cellsY,
+                          float[] level, float[] noise) {
         this.width = width;
         this.height = height;
         this.mesh = mesh;
+        this.settings = settings;
         this.cellsX = cellsX;
         this.cellsY = cellsY;
         this.level = level;
@@ -68,6 +72,10 @@ public final class BackgroundMap {
         int maxCell = (width / cx + width % cx + 1) * (height / cy + height % cy + 1);
         float[][] scratch = new float[Math.max(1, threads)][maxCell];
         float[][] deviations = new float[Math.max(1, threads)][maxCell];
+        HistogramMedian[] medians = new HistogramMedian[Math.max(1, threads)];
+        for (int t = 0; t < medians.length; t++) {
+            medians[t] = new HistogramMedian(maxCell);
+        }
         Parallel.forEach(cx * cy, threads, (cell, worker) -> {
             int i = cell % cx;
             int j = cell / cx;
@@ -96,8 +104,8 @@ public final class BackgroundMap {
             double med = 0;
             double sig = 0;
             for (int it = 0; it < settings.clipIterations(); it++) {
-                med = Select.median(buf, n);
-                sig = madSigma(buf, n, med, deviations[worker]);
+                med = medians[worker].median(buf, n);
+                sig = madSigma(buf, n, med, deviations[worker], medians[worker]);
                 if (!(sig > 0)) {
                     break;
                 }
@@ -121,14 +129,14 @@ public final class BackgroundMap {
         fillInvalid(noise);
         float[] fl = medianFilter(level, cx, cy, settings.filterSize());
         float[] fn = medianFilter(noise, cx, cy, settings.filterSize());
-        return new BackgroundMap(width, height, mesh, cx, cy, fl, fn);
+        return new BackgroundMap(width, height, mesh, settings, cx, cy, fl, fn);
     }
 
-    private static double madSigma(float[] v, int n, double med, float[] dev) {
+    private static double madSigma(float[] v, int n, double med, float[] dev, HistogramMedian median) {
         for (int k = 0; k < n; k++) {
             dev[k] = (float) Math.abs(v[k] - med);
         }
-        return Select.MAD_TO_SIGMA * Select.median(dev, n);
+        return Select.MAD_TO_SIGMA * median.median(dev, n);
     }
 
     private static void fillInvalid(float[] cells) {
@@ -180,6 +188,14 @@ public final class BackgroundMap {
     /** @return image height this map covers */
     public int height() {
         return height;
+    }
+
+    /**
+     * @return the settings the map was estimated with (a caller holding a map can check that it is the one it
+     *         would have estimated itself before reusing it)
+     */
+    public BackgroundSettings settings() {
+        return settings;
     }
 
     /** @return cell side in pixels */

@@ -18,6 +18,11 @@ public record PlateScale(double arcsecPerPixel, String source) {
     /** Arcseconds per radian divided by 1000 (µm/mm): scale = this × pixel[µm] / focal[mm]. */
     public static final double ARCSEC_PER_RADIAN_MILLI = 648000 / Math.PI / 1000;
 
+    /** The numeric keywords {@link #fromHeader} reads. */
+    private static final java.util.List<String> KEYWORDS = java.util.List.of("CD1_1", "CD1_2", "CD2_1", "CD2_2",
+            "CDELT1", "CDELT2", "PC1_1", "PC1_2", "PC2_1", "PC2_2", "FOCALLEN", "XPIXSZ", "YPIXSZ", "PIXSIZE1",
+            "PIXSIZE2", "XBINNING", "YBINNING");
+
     /** Validates the scale. */
     public PlateScale {
         if (!(arcsecPerPixel > 0) || !Double.isFinite(arcsecPerPixel)) {
@@ -60,8 +65,20 @@ public record PlateScale(double arcsecPerPixel, String source) {
      *
      * @param h the header (input, not modified)
      * @return the scale, or empty when the header does not say
+     * @throws IllegalArgumentException if one of the keywords above holds something that is not a FITS
+     *                                  number (FITS Standard 4.0 §4.2.3–4.2.4), e.g. {@code FOCALLEN = 'abc'}:
+     *                                  the header means to give a scale, and silently skipping the card
+     *                                  would report another one or none
      */
     public static Optional<PlateScale> fromHeader(FitsHeader h) {
+        for (String key : KEYWORDS) {
+            Optional<String> bad = h.malformedNumber(key);
+            if (bad.isPresent()) {
+                throw new IllegalArgumentException(key + " is " + bad.get() + ", not a number (FITS Standard 4.0 "
+                        + "§4.2.3-4.2.4), so the plate scale cannot be read from the header: correct or remove "
+                        + "the card, or give the plate scale explicitly");
+            }
+        }
         OptionalDouble wcs = Wcs.pixelScaleArcsec(h);
         if (wcs.isPresent()) {
             String how = h.getDouble("CD1_1").isPresent() || h.getDouble("CD2_2").isPresent() ? "CD matrix" : "CDELT";

@@ -4,6 +4,7 @@ import dev.nitid.fits.FitsHeader;
 import dev.nitid.fits.FitsImage;
 import dev.nitid.image.Image;
 import dev.nitid.stars.fit.FitSettings;
+import dev.nitid.stars.internal.EllipticalProfileModel;
 import dev.nitid.stars.internal.Parallel;
 import dev.nitid.stars.internal.Select;
 import java.util.ArrayList;
@@ -92,10 +93,21 @@ public final class StarMeasurer {
      * @param h      header (input, not modified)
      * @param bitpix BITPIX of the data
      * @return the level, or empty when unknown
+     * @throws IllegalArgumentException if SATURATE, BZERO or BSCALE holds something that is not a FITS
+     *                                  number (FITS Standard 4.0 §4.2.3–4.2.4): falling back to the type
+     *                                  ceiling would let saturated stars through unnoticed
      */
     public static java.util.OptionalDouble saturationLevel(FitsHeader h, int bitpix) {
+        for (String key : new String[] {"SATURATE", "BZERO", "BSCALE"}) {
+            java.util.Optional<String> bad = h.malformedNumber(key);
+            if (bad.isPresent()) {
+                throw new IllegalArgumentException(key + " is " + bad.get() + ", not a number (FITS Standard 4.0 "
+                        + "§4.2.3-4.2.4), so the saturation level is unknown: correct or remove the card, or give "
+                        + "the saturation level explicitly");
+            }
+        }
         java.util.OptionalDouble sat = h.getDouble("SATURATE");
-        if (sat.isPresent() && Double.isFinite(sat.getAsDouble())) {
+        if (sat.isPresent()) {
             return sat;
         }
         if (bitpix < 0) {
@@ -205,24 +217,30 @@ public final class StarMeasurer {
             for (int j = 0; j < size; j++) {
                 System.arraycopy(resid, (y0 + j) * width + x0, st, j * size, size);
             }
-            StarProfileFit.ProfilePair pair;
+            StarProfile gStamp;
             try {
-                pair = StarProfileFit.fitBoth(st, null, size, size, pfs);
+                gStamp = StarProfileFit.fit(st, null, size, size, ProfileShape.GAUSSIAN, pfs);
             } catch (IllegalArgumentException e) {
                 return;
             }
             double local = bg.levelAt(c.x(), c.y());
-            StarProfile g = shift(pair.gaussian(), x0, y0, local);
-            StarProfile m = shift(pair.moffat(), x0, y0, local);
+            StarProfile g = shift(gStamp, x0, y0, local);
             if (!plausible(g, c, R, s)) {
                 return;
             }
-            if (!plausible(m, c, R, s) || !(m.beta() < 0.999 * dev.nitid.stars.internal.EllipticalProfileModel.MAX_BETA)) {
-                m = null;
-            }
             double noise = bg.noiseAt(c.x(), c.y());
+            boolean tooFaint = g.amplitude() < s.minPeakSnr() * noise;
+            StarProfile m = null;
+            // The Moffat fit costs most of the time and is used only for accepted stars: a star that the
+            // Gaussian fit already rejects (implausible, too faint) does not get one.
+            if (!tooFaint) {
+                m = shift(StarProfileFit.fitMoffatFrom(gStamp, st, null, size, size, pfs), x0, y0, local);
+                if (!plausible(m, c, R, s) || !(m.beta() < 0.999 * EllipticalProfileModel.MAX_BETA)) {
+                    m = null;
+                }
+            }
             fits[i] = new MeasuredStar(g.x(), g.y(), g.amplitude() / noise, g, m, 0);
-            faint[i] = g.amplitude() < s.minPeakSnr() * noise;
+            faint[i] = tooFaint;
         });
         List<MeasuredStar> good = new ArrayList<>();
         java.util.Map<MeasuredStar, Integer> ordinalOf = new java.util.IdentityHashMap<>();
@@ -344,7 +362,7 @@ public final class StarMeasurer {
                 Collections.unmodifiableList(stars),
                 Collections.unmodifiableMap(rejected), skipped, bg.globalLevel(), bg.globalNoise(), gs, ms, best,
                 Collections.unmodifiableList(regions), gc, gr, emp, model, mismatch, source, reason,
-                Collections.unmodifiableMap(timings), stars.size() >= s.minStars());
+                Collections.unmodifiableMap(timings), stars.size() >= s.minStars(), bg);
     }
 
     /** Median Gaussian FWHM of the {@code count} highest-S/N stars (ties keep list order). */
@@ -420,8 +438,23 @@ public final class StarMeasurer {
         float[] filt = new float[resid.length];
         Parallel.forEach(h, threads, (y, worker) -> {
             int row = y * w;
+            boolean clean = true;
+            for (int x = 0; x < w; x++) {
+                float v = resid[row + x];
+                clean &= v == v;
+            }
             for (int x = 0; x < w; x++) {
                 float acc = 0;
+                if (clean && x >= kr && x + kr < w) {
+                    // A row without masked pixels, away from its ends: the same sum in the same order,
+                    // without the per-tap checks.
+                    int base = row + x - kr;
+                    for (int t = 0; t <= 2 * kr; t++) {
+                        acc += k[t] * resid[base + t];
+                    }
+                    tmp[row + x] = acc;
+                    continue;
+                }
                 int a = Math.max(0, x - kr);
                 int b = Math.min(w - 1, x + kr);
                 for (int xx = a; xx <= b; xx++) {

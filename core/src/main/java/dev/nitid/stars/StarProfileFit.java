@@ -131,6 +131,34 @@ public final class StarProfileFit {
     public static ProfilePair fitBoth(float[] stamp, float[] weights, int width, int height,
                                       ProfileFitSettings settings) {
         StarProfile g = fit(stamp, weights, width, height, ProfileShape.GAUSSIAN, settings);
+        return new ProfilePair(g, fitMoffatFrom(g, stamp, weights, width, height, settings));
+    }
+
+    /**
+     * Fits the Moffat profile starting from a Gaussian fit of the same stamp (its centre, amplitude and
+     * background, its quadratic form rescaled so that the FWHM is kept at β = 3). Lets a caller look at the
+     * Gaussian fit first and skip the costlier Moffat fit of a stamp it will reject anyway;
+     * {@code fitBoth} is this after {@link #fit}.
+     *
+     * @param gaussian the Gaussian fit of this stamp with these settings
+     * @param stamp    pixels, row-major, NaN = ignore (input, not modified)
+     * @param weights  per-pixel weights 1/σ², or {@code null} (input, not modified)
+     * @param width    stamp width, ≥ 3
+     * @param height   stamp height, ≥ 3
+     * @param settings sampling and solver settings
+     * @return the Moffat + constant fit
+     * @throws IllegalArgumentException if the gaussian is not a Gaussian fit or a size does not match
+     */
+    public static StarProfile fitMoffatFrom(StarProfile gaussian, float[] stamp, float[] weights, int width,
+                                            int height, ProfileFitSettings settings) {
+        if (gaussian == null || gaussian.shape() != ProfileShape.GAUSSIAN) {
+            throw new IllegalArgumentException("the start must be a Gaussian fit of the stamp, not "
+                    + (gaussian == null ? "null" : gaussian.shape()) + ": call fit(..., GAUSSIAN, ...) first");
+        }
+        if (stamp == null || stamp.length != width * height || (weights != null && weights.length != stamp.length)) {
+            throw new IllegalArgumentException("stamp and weights must hold " + width + "x" + height
+                    + " values: pass the stamp the Gaussian was fitted to");
+        }
         double[] data = new double[stamp.length];
         for (int i = 0; i < stamp.length; i++) {
             data[i] = stamp[i];
@@ -143,9 +171,9 @@ public final class StarProfileFit {
             }
         }
         boolean integrated = settings.sampling() == PixelSampling.INTEGRATED;
-        FitResult m = fitMoffatFrom(g.fit(), initialGaussian(stamp, width, height), data, w, width, height,
+        FitResult m = fitMoffatFrom(gaussian.fit(), initialGaussian(stamp, width, height), data, w, width, height,
                 integrated, settings);
-        return new ProfilePair(g, describe(ProfileShape.MOFFAT, m));
+        return describe(ProfileShape.MOFFAT, m);
     }
 
     /**

@@ -22,7 +22,8 @@ import java.util.SplittableRandom;
  * catalogue flux is exactly the light the star adds (less what falls outside the field). Noise follows
  * {@link DetectorSettings}: a stack of N frames is drawn as one Poisson deviate of N times the frame's
  * electrons plus Gaussian read noise of √N σ (sums of independent Poisson and Gaussian variables keep their
- * family), except near saturation, where each frame is drawn and clipped on its own.
+ * family: their generating functions multiply; common practice, no source), except near saturation,
+ * where each frame is drawn and clipped on its own.
  */
 public final class FieldGenerator {
     /** Pixels within this many frame σ of saturation are simulated frame by frame (clip probability ~1e-9). */

@@ -2,9 +2,7 @@ package dev.nitid.fft;
 
 import dev.nitid.image.Image;
 import dev.nitid.testdata.ArrayAssert;
-import java.io.IOException;
-import java.io.InputStream;
-import java.io.UncheckedIOException;
+import dev.nitid.testdata.Reference;
 import java.nio.charset.StandardCharsets;
 import java.util.ArrayList;
 import java.util.List;
@@ -20,7 +18,8 @@ import org.junit.jupiter.params.provider.MethodSource;
  * one-pixel cases, on every path.
  */
 class ScipyReferenceTest {
-    private static final String ROOT = "/dev/nitid/testdata/convolution/";
+    /** Folder below {@code dev/nitid/testdata/}, read through the testdata module (works on the module path). */
+    private static final String FOLDER = "convolution/";
     /** Inputs are float32 written with 9 significant digits, the reference is float64 (see ConvolverContract.REL_TOL). */
     private static final double REL_TOL = ConvolverContract.REL_TOL;
 
@@ -78,21 +77,19 @@ class ScipyReferenceTest {
     }
 
     private static List<String> lines(String file) {
-        try (InputStream in = ScipyReferenceTest.class.getResourceAsStream(ROOT + file)) {
-            if (in == null) {
-                throw new IllegalStateException("missing test resource " + ROOT + file
-                        + ": run testdata/scripts/gen_convolution_reference.py");
-            }
-            List<String> out = new ArrayList<>();
-            for (String l : new String(in.readAllBytes(), StandardCharsets.UTF_8).split("\r?\n")) {
-                if (!l.isBlank()) {
-                    out.add(l.trim());
-                }
-            }
-            return out;
-        } catch (IOException e) {
-            throw new UncheckedIOException(e);
+        byte[] bytes;
+        try {
+            bytes = Reference.bundledBytes(FOLDER + file);
+        } catch (IllegalArgumentException e) {
+            throw new IllegalStateException(e.getMessage() + ": run testdata/scripts/gen_convolution_reference.py", e);
         }
+        List<String> out = new ArrayList<>();
+        for (String l : new String(bytes, StandardCharsets.UTF_8).split("\r?\n")) {
+            if (!l.isBlank()) {
+                out.add(l.trim());
+            }
+        }
+        return out;
     }
 
     private static double[][] matrix(String file) {

@@ -5,8 +5,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.io.IOException;
-import java.io.InputStream;
+import dev.nitid.testdata.Reference;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -27,7 +26,8 @@ import org.junit.jupiter.params.provider.MethodSource;
  * after equals the manifest's).
  */
 class HostileCorpusTest {
-    static final String ROOT = "/dev/nitid/testdata/hostile/";
+    /** The corpus folder below {@code dev/nitid/testdata/}. */
+    static final String FOLDER = "hostile/";
 
     /** One manifest row. */
     record Entry(String file, String expect, int exit, int hdu, String keyword, String contains, String sha256,
@@ -51,15 +51,9 @@ class HostileCorpusTest {
         return out;
     }
 
+    /** A corpus file, read through the testdata module so it also works on the module path. */
     static byte[] bytes(String name) {
-        try (InputStream in = HostileCorpusTest.class.getResourceAsStream(ROOT + name)) {
-            if (in == null) {
-                throw new IllegalStateException("missing corpus file " + name);
-            }
-            return in.readAllBytes();
-        } catch (IOException e) {
-            throw new IllegalStateException(e);
-        }
+        return Reference.bundledBytes(FOLDER + name);
     }
 
     static String sha256(Path p) throws Exception {

@@ -32,6 +32,11 @@ class PupilAiryTest {
     static final double EE_ATOL = 2e-3;
     /** FWHM from the sampled profile of an FFT builder: 0.5 % (reference README §1, step 5). */
     static final double FWHM_RTOL = 5e-3;
+    /**
+     * Ring-peak position, λ/D: 0.01 (project target, no source). A maximum is flat, so its position is less
+     * certain than a zero's; 0.01 is 0.4 of the 0.025 λ/D profile spacing. Measured 8e-5.
+     */
+    static final double RING_PEAK_X_ATOL = 0.01;
 
     static PupilPsf model(double eps) {
         return PupilPsf.ofSampling(SAMPLE_LD, 550).withPupilSamples(256).withObstruction(eps);
@@ -115,8 +120,8 @@ class PupilAiryTest {
                 Map<String, String> pr = RefCsv.row("airy_constants.csv", "feature", rows[k][1]);
                 assertEquals(RefCsv.num(pr, "I_rel_peak"), peaks.get(k)[1] / centre, PROFILE_ATOL,
                         "ring " + (k + 1) + " peak over centre");
-                assertEquals(RefCsv.num(pr, "x_lambda_over_D"), peaks.get(k)[0], 0.01,
-                        "ring " + (k + 1) + " peak position [λ/D] (broad maximum: 0.01 λ/D)");
+                assertEquals(RefCsv.num(pr, "x_lambda_over_D"), peaks.get(k)[0], RING_PEAK_X_ATOL,
+                        "ring " + (k + 1) + " peak position [λ/D]");
             }
         }
         double fwhm = 2 * halfMaxCrossing(p);

@@ -1,6 +1,7 @@
 package dev.nitid.quality;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import dev.nitid.image.Image;
@@ -8,6 +9,8 @@ import dev.nitid.restore.Method;
 import dev.nitid.restore.RestoreSettings;
 import dev.nitid.restore.Restorers;
 import dev.nitid.restore.StarProtection;
+import dev.nitid.stars.BackgroundMap;
+import dev.nitid.stars.BackgroundSettings;
 import dev.nitid.stars.MeasureSettings;
 import dev.nitid.stars.StarMeasurement;
 import dev.nitid.stars.StarMeasurer;
@@ -113,5 +116,91 @@ class ObservedQualityTest {
                 assertTrue(Math.hypot(s.x() - t.x(), s.y() - t.y()) > 3, "saturated star selected: " + t);
             }
         }
+    }
+
+    @Test
+    void reusesTheMeasurementsBackgroundMapOnlyWhenItIsTheDefaultOne() {
+        // sharpen builds the figures from the measurement that gave the PSF; its mesh map must give the same
+        // figures as a map estimated here (same plane, same default settings), and a measurement made with
+        // another mesh must not be reused.
+        SyntheticField f = FieldGenerator.generate(new FieldSettings(300, 280, 17,
+                new StarSettings(30, FluxLaw.UNIFORM_MAGNITUDE, 5e3, 5e5, 1, Placement.GRID, 36),
+                new ExtendedSettings(80, 4, 30, 1.2, 1, 100), SyntheticModelPsf.moffat(3.5, 3).withSize(41),
+                new DetectorSettings(150, 1.5, 6, 2, Double.POSITIVE_INFINITY)));
+        Image other = Image.wrap(300, 280, dev.nitid.quality.internal.GaussianSmoothing.smooth(
+                f.observed().plane(0), 300, 280, 2.0));
+        BackgroundMap fresh = BackgroundMap.estimate(f.observed().plane(0), 300, 280, BackgroundSettings.defaults(), 2);
+        StarMeasurement m = StarMeasurer.measure(f.observed(), MeasureSettings.defaults().withThreads(2));
+        assertEquals(BackgroundSettings.defaults(), m.backgroundMap().settings(), "the measurement keeps its map");
+        QualityReport expect = ObservedQuality.of(f.observed(), m, fresh, Double.NaN, QualitySettings.defaults(), 2)
+                .evaluate(other);
+        assertEquals(expect, ObservedQuality.of(f.observed(), m, Double.NaN, QualitySettings.defaults(), 2)
+                .evaluate(other), "reused map");
+
+        StarMeasurement coarse = StarMeasurer.measure(f.observed(), MeasureSettings.defaults().withThreads(2)
+                .withBackground(BackgroundSettings.defaults().withMeshSize(100)));
+        assertEquals(100, coarse.backgroundMap().meshSize());
+        ObservedQuality q = ObservedQuality.of(f.observed(), coarse, Double.NaN, QualitySettings.defaults(), 2);
+        assertEquals(ObservedQuality.of(f.observed(), coarse, fresh, Double.NaN, QualitySettings.defaults(), 2)
+                .evaluate(other), q.evaluate(other), "a non-default map is estimated again with the defaults");
+    }
+
+    /** Sky level, sky σ and the frame of the faint-region tests (an invented flat frame). */
+    private static final float SKY = 500f;
+    private static final float SKY_SIGMA = 5f;
+    private static final int FRAME_W = 768;
+    private static final int FRAME_H = 512;
+
+    /** A flat sky with white noise and, if {@code peak > 0}, a smooth round patch of light of that peak. */
+    private static Image frameWithPatch(double peak, double cx, double cy, double radius, long seed) {
+        java.util.SplittableRandom rnd = new java.util.SplittableRandom(seed);
+        float[] px = new float[FRAME_W * FRAME_H];
+        for (int y = 0; y < FRAME_H; y++) {
+            for (int x = 0; x < FRAME_W; x++) {
+                double r2 = ((x - cx) * (x - cx) + (y - cy) * (y - cy)) / (radius * radius);
+                double gauss = Math.sqrt(-2 * Math.log(1 - rnd.nextDouble())) * Math.cos(2 * Math.PI * rnd.nextDouble());
+                px[y * FRAME_W + x] = (float) (SKY + peak * Math.exp(-0.5 * r2) + SKY_SIGMA * gauss);
+            }
+        }
+        return Image.wrap(FRAME_W, FRAME_H, px);
+    }
+
+    @Test
+    void faintRegionLandsOnLightAtTheWantedLevel() {
+        // Truth by construction: a smooth patch whose peak is 8 sky σ; light 4 σ above the sky lies on the
+        // circle where 8·exp(−r²/2s²) = 4, r = s·√(2 ln 2). The mesh samples the frame every 64 px and the
+        // map is bilinear between cell centres, so the chosen point is within one cell (64 px) of that circle.
+        double s = 120;
+        double cx = 470;
+        double cy = 260;
+        Image img = frameWithPatch(8 * SKY_SIGMA, cx, cy, s, 11);
+        BackgroundMap map = BackgroundMap.estimate(img.plane(0), FRAME_W, FRAME_H, BackgroundSettings.defaults(), 2);
+        StarSite site = ObservedQuality.faintRegion(map, 4, 33);
+        double ring = s * Math.sqrt(2 * Math.log(2));
+        double r = Math.hypot(site.x() - cx, site.y() - cy);
+        assertEquals(ring, r, map.meshSize(), "distance from the patch centre " + site);
+        assertTrue(site.x() >= 33 && site.y() >= 33 && site.x() < FRAME_W - 33 && site.y() < FRAME_H - 33,
+                "inside the margins: " + site);
+        assertEquals(site.x(), Math.rint(site.x()), 0.0, "whole pixels");
+
+        // No light above the sky: plain sky, anywhere inside the margins.
+        Image flat = frameWithPatch(0, 0, 0, 1, 12);
+        StarSite sky = ObservedQuality.faintRegion(BackgroundMap.estimate(flat.plane(0), FRAME_W, FRAME_H,
+                BackgroundSettings.defaults(), 2), 4, 33);
+        assertTrue(sky.x() >= 33 && sky.y() >= 33 && sky.x() < FRAME_W - 33 && sky.y() < FRAME_H - 33,
+                "inside the margins: " + sky);
+        assertThrows(IllegalArgumentException.class, () -> ObservedQuality.faintRegion(map, -1, 33));
+        assertThrows(IllegalArgumentException.class, () -> ObservedQuality.faintRegion(map, 4, -1));
+    }
+
+    @Test
+    void faintRegionOfAReferenceUsesTheInputsMap() {
+        SyntheticField f = FieldGenerator.generate(new FieldSettings(300, 280, 23,
+                new StarSettings(30, FluxLaw.UNIFORM_MAGNITUDE, 5e3, 5e5, 1, Placement.GRID, 36),
+                new ExtendedSettings(80, 4, 30, 1.2, 1, 100), SyntheticModelPsf.moffat(3.5, 3).withSize(41),
+                new DetectorSettings(150, 1.5, 6, 2, Double.POSITIVE_INFINITY)));
+        StarMeasurement m = StarMeasurer.measure(f.observed(), MeasureSettings.defaults().withThreads(2));
+        ObservedQuality q = ObservedQuality.of(f.observed(), m, Double.NaN, QualitySettings.defaults(), 2);
+        assertEquals(ObservedQuality.faintRegion(m.backgroundMap(), 4, 33), q.faintRegion(4, 33));
     }
 }

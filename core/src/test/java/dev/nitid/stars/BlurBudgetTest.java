@@ -21,6 +21,17 @@ import org.junit.jupiter.api.Test;
 class BlurBudgetTest {
     /** Bisection and profile-fit noise on noise-free renders: a few tenths of a percent; 2 % is the FWHM figure of issue 6. */
     private static final double REL = 0.02;
+    /**
+     * Tracking: the trail is found from the major axis after the round parts are removed, a difference of two
+     * nearly equal widths, so it is known ~5× less well than the seeing (project target, no source).
+     */
+    private static final double TRACKING_REL = 0.10;
+    /** The three shares are fractions of one sum: equal to 1 up to double rounding. */
+    private static final double SHARES_SUM_TOL = 1e-12;
+    /** Optics wider than the stars: the optics carry nearly all the blur (project choice, no source). */
+    private static final double MIN_OPTICS_SHARE = 0.9;
+    /** Airy FWHM against 1.028994 λ/D: a profile fit of the pupil-FFT PSF sampled at ~2.9 px per λ/D (project target, no source). */
+    private static final double AIRY_FWHM_REL = 0.01;
 
     static ProfileSummary summaryOf(Image img, ProfileShape shape) {
         StarProfile p = StarProfileFit.fit(img.plane(0), null, img.width(), img.height(), shape,
@@ -44,8 +55,8 @@ class BlurBudgetTest {
         ProfileSummary measured = summaryOf(img, ProfileShape.MOFFAT);
         BlurSplit split = BlurBudget.split(measured, optics, scale, PixelSampling.INTEGRATED, 15);
         assertEquals(seeing, split.seeingFwhmArcsec(), REL * seeing, "seeing");
-        assertEquals(tracking, split.trackingFwhmPx(), 0.1 * tracking, "tracking");
-        assertEquals(1, split.opticsShare() + split.seeingShare() + split.trackingShare(), 1e-12, "shares");
+        assertEquals(tracking, split.trackingFwhmPx(), TRACKING_REL * tracking, "tracking");
+        assertEquals(1, split.opticsShare() + split.seeingShare() + split.trackingShare(), SHARES_SUM_TOL, "shares");
         assertEquals(measured.fwhmMajor(), split.modelMajorPx(), REL * measured.fwhmMajor(), "model major");
         assertTrue(split.seeingShare() > split.opticsShare(), "seeing dominates a 200 mm aperture at 2.2\"");
     }
@@ -57,10 +68,10 @@ class BlurBudgetTest {
         Image img = optics.render(31);
         ProfileSummary measured = summaryOf(img, ProfileShape.GAUSSIAN);
         BlurSplit split = BlurBudget.split(measured, optics, scale, PixelSampling.INTEGRATED, 15);
-        assertEquals(0, split.seeingFwhmArcsec(), 0.02 * split.opticsFwhmPx() * scale);
-        assertTrue(split.opticsShare() > 0.9, "optics share " + split.opticsShare());
+        assertEquals(0, split.seeingFwhmArcsec(), REL * split.opticsFwhmPx() * scale, "no seeing");
+        assertTrue(split.opticsShare() > MIN_OPTICS_SHARE, "optics share " + split.opticsShare());
         // Airy FWHM = 1.028994 λ/D (reference README §1, scipy): λ/D = 550e-9/0.05 rad, at 206.264806·3.76/1000 ″/px.
         double lambdaOverDPx = 550e-9 / 0.050 * 206264.806 / scale;
-        assertEquals(1.028994 * lambdaOverDPx, split.opticsFwhmPx(), 0.01 * 1.028994 * lambdaOverDPx, "Airy FWHM");
+        assertEquals(1.028994 * lambdaOverDPx, split.opticsFwhmPx(), AIRY_FWHM_REL * 1.028994 * lambdaOverDPx, "Airy FWHM");
     }
 }

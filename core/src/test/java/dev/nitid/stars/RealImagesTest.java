@@ -37,6 +37,21 @@ class RealImagesTest {
     private static final double SAME_METHOD_FWHM_REL = 0.01;
     /** Pipeline FWHM (pixel-integrated model, other stamp) vs the reference's point-sampled fit (README §8: 10 %). */
     private static final double PIPELINE_FWHM_REL = 0.10;
+    /** Centroid against astropy's Gaussian2D on the same cutout (same model, same pixels): 0.05 px (project margin). */
+    private static final double SAME_METHOD_POSITION_PX = 0.05;
+    /** An accepted star this close to the galaxy nucleus would be the nucleus, px (project choice: ~1.3 FWHM). */
+    private static final double NUCLEUS_PX = 3;
+    /**
+     * Extra FWHM allowance for the fainter reference stars 3..7, px: their photutils FWHM itself scatters by about
+     * a tenth of a pixel at their S/N (project margin, no source).
+     */
+    private static final double FAINT_REFERENCE_FWHM_PX = 0.1;
+    /** At least this many of the five reference stars 3..7 must be accepted (project choice). */
+    private static final int MIN_REFERENCE_STARS = 3;
+    /** Issue 6 wording: the ten brightest photutils sources; allow one saturated plate star to split (project choice). */
+    private static final int MIN_BRIGHTEST_MATCHED = 9;
+    /** Detections match photutils sources within this distance, px (the DAO acceptance figure of issue 6). */
+    private static final double DETECTION_MATCH_PX = 1.0;
 
     /** Reads the primary image with nom-tam-fits (test scope), applying BSCALE/BZERO. */
     static Image read(Path p) throws Exception {
@@ -97,8 +112,8 @@ class RealImagesTest {
         StarProfile g = StarProfileFit.fitGaussian(box, 11, 11);
         // astropy's Gaussian2D has no constant term; ours has one, so allow the reference's 10 % here too but
         // check the centre tightly.
-        assertEquals(star[4], g.x() + xi - 5, 0.05, "x vs astropy");
-        assertEquals(star[5], g.y() + yi - 5, 0.05, "y vs astropy");
+        assertEquals(star[4], g.x() + xi - 5, SAME_METHOD_POSITION_PX, "x vs astropy");
+        assertEquals(star[5], g.y() + yi - 5, SAME_METHOD_POSITION_PX, "y vs astropy");
         assertEquals(star[6], g.fwhm(), PIPELINE_FWHM_REL * star[6], "FWHM vs astropy");
 
         StarMeasurement m = StarMeasurer.measure(img, MeasureSettings.defaults().withMinStars(3));
@@ -116,7 +131,7 @@ class RealImagesTest {
         assertEquals(0, m.rejected().get(RejectReason.SATURATED), "saturated detections in M51");
         double[] nucleus = ref.get(1);
         for (MeasuredStar s : m.stars()) {
-            assertTrue(Math.hypot(s.x() - nucleus[0], s.y() - nucleus[1]) > 3, "galaxy nucleus accepted as a star");
+            assertTrue(Math.hypot(s.x() - nucleus[0], s.y() - nucleus[1]) > NUCLEUS_PX, "galaxy nucleus accepted as a star");
         }
         // Isolated stars of the reference list that our pipeline accepted sit within 0.3 px of photutils.
         int matched = 0;
@@ -125,11 +140,11 @@ class RealImagesTest {
             for (MeasuredStar s : m.stars()) {
                 if (Math.hypot(s.x() - r[4], s.y() - r[5]) <= POSITION_PX) {
                     matched++;
-                    assertEquals(r[6], s.gaussian().fwhm(), PIPELINE_FWHM_REL * r[6] + 0.1, "FWHM of star " + k);
+                    assertEquals(r[6], s.gaussian().fwhm(), PIPELINE_FWHM_REL * r[6] + FAINT_REFERENCE_FWHM_PX, "FWHM of star " + k);
                 }
             }
         }
-        assertTrue(matched >= 3, "only " + matched + " of the reference stars 3..7 accepted");
+        assertTrue(matched >= MIN_REFERENCE_STARS, "only " + matched + " of the reference stars 3..7 accepted");
     }
 
     /**
@@ -147,13 +162,13 @@ class RealImagesTest {
         List<double[]> ref = golden("real_stars_dss_cutout.csv");
         for (double[] r : ref) {
             for (Detection d : m.detections()) {
-                if (Math.hypot(d.x() - r[0], d.y() - r[1]) <= 1.0) {
+                if (Math.hypot(d.x() - r[0], d.y() - r[1]) <= DETECTION_MATCH_PX) {
                     matched++;
                     break;
                 }
             }
         }
-        assertTrue(matched >= 9, matched + " of " + ref.size() + " matched; our detections: " + m.detections().size());
+        assertTrue(matched >= MIN_BRIGHTEST_MATCHED, matched + " of " + ref.size() + " matched; our detections: " + m.detections().size());
         // All 131 photutils sources (testdata stars/dss_cutout_dao.csv, same settings): the share we also detect.
         List<double[]> all = StarReference.rows("dss_cutout_dao.csv");
         int hit = 0;
@@ -162,7 +177,7 @@ class RealImagesTest {
             for (Detection d : m.detections()) {
                 best = Math.min(best, Math.hypot(d.x() - r[0], d.y() - r[1]));
             }
-            if (best <= 1.0) {
+            if (best <= DETECTION_MATCH_PX) {
                 hit++;
             }
         }

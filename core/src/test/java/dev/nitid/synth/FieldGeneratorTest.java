@@ -12,11 +12,14 @@ import dev.nitid.testdata.ArrayAssert;
 import dev.nitid.testdata.SeededCases;
 import java.util.List;
 import java.util.stream.Stream;
+import org.hipparchus.special.Erf;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.MethodSource;
 
 class FieldGeneratorTest {
+    /** Gaussian FWHM/σ = 2√(2 ln 2) (any statistics handbook; reference constants.csv 2.35482004503). */
+    static final double FWHM_PER_SIGMA = 2.354820045;
     /**
      * Sky variance vs sky/gain + read noise² (common practice: shot noise plus read noise in quadrature;
      * Howell 2006, Handbook of CCD Astronomy, ch. 4): 3 % as the issue asks. With 160 000 samples the
@@ -25,6 +28,38 @@ class FieldGeneratorTest {
     static final double SKY_VARIANCE_RTOL = 0.03;
     /** Sums of float pixels over a stamp: float rounding of ~4000 additions, relative. */
     static final double FLOAT_SUM_RTOL = 1e-5;
+    /**
+     * Width of the band for sample means and binomial fractions, in standard errors: 5, so that a correct
+     * generator fails a check with probability 5.7e-7 (two-sided normal tail; common practice, no source).
+     * Wider than the reference README §7's 3σ because the class makes 8 such checks.
+     */
+    static final double SE_BAND = 5;
+    /**
+     * Ratio of two float32 kernel values: each is rounded once when sampled and once when the stamp is
+     * normalised, 2⁻²⁴ each, so the ratio is good to 4·2⁻²⁴ = 2.4e-7 relative (common practice, no source).
+     * Measured 3.9e-8. (Was 1e-6 absolute on a ratio of 0.18, i.e. 5.7e-6 relative.)
+     */
+    static final double FLOAT_RATIO_RTOL = 2.4e-7;
+    /**
+     * Second moment of a float32 kernel summed in double: the values carry 2⁻²⁴ relative rounding, so the
+     * variance (≈ 1.6 px² here) is good to ~2e-7 px²; 1e-6 px² leaves 5× (common practice, no source).
+     * Measured 2.4e-9. (Was 1e-3 against σ² + 1/12, which hid the 3.3e-4 midpoint-rule term below.)
+     */
+    static final double VARIANCE_ATOL = 1e-6;
+    /**
+     * Midpoint-rule bound for the peak of a pixel integrated on 5 × 5 sub-pixels against the exact pixel
+     * integral (Hipparchus 4.0.3 Erf): per axis the midpoint rule with h = 1/5 errs by (h²/24)·|g′(½) −
+     * g′(−½)| (Davis &amp; Rabinowitz, midpoint rule, from memory), 1.5e-3 of the pixel for σ = 1.02 px and
+     * 0.7e-3 for σ = 1.53 px; squared for two axes, 2.9e-3 and 1.4e-3, of the same sign, so their ratio is
+     * off by less than 2.9e-3 (derived here). Measured 1.6e-3. (Was 0.1 absolute on 2.25, 4.4 %.)
+     */
+    static final double PEAK_RATIO_RTOL = 3e-3;
+    /**
+     * float32 FFT convolution (the extended part of the field) against a direct sum: ε·log₂N growth
+     * (Higham, Accuracy and Stability of Numerical Algorithms, 2nd ed. 2002, §24.1) gives ~1e-6 of the
+     * largest value for N ≤ 2¹²; 1e-5 leaves 10× (as ConvolverContract.REL_TOL). Measured 1e-7.
+     */
+    static final double FFT_CONVOLUTION_RTOL = 1e-5;
 
     static Stream<DetectorSettings> detectors() {
         return Stream.of(
@@ -53,8 +88,8 @@ class FieldGeneratorTest {
         double expected = (det.sky() / g + (det.readNoise() / g) * (det.readNoise() / g)) / det.frames();
         assertEquals(expected, var, SKY_VARIANCE_RTOL * expected, "sky variance");
         assertEquals(expected, det.skySigma() * det.skySigma(), 1e-12 * expected, "skySigma()");
-        // The mean of a Poisson-plus-Gaussian stack is the sky; 5 standard errors.
-        assertEquals(det.sky(), mean, 5 * Math.sqrt(expected / px.length), "sky mean");
+        // The mean of a Poisson-plus-Gaussian stack is the sky, within SE_BAND standard errors.
+        assertEquals(det.sky(), mean, SE_BAND * Math.sqrt(expected / px.length), "sky mean");
     }
 
     @Test
@@ -95,15 +130,19 @@ class FieldGeneratorTest {
         SyntheticModelPsf m = new SyntheticModelPsf(SyntheticModelPsf.Shape.MOFFAT, 2.26100123228, 2.5, 11, 1, 0, 0);
         float[] k = m.centre().plane(0);
         double ratio = k[5 * 11 + 7] / (double) k[5 * 11 + 5];
-        assertEquals(Math.pow(2, -2.5), ratio, 1e-6, "I(α)/I(0)");
+        assertEquals(Math.pow(2, -2.5), ratio, FLOAT_RATIO_RTOL * Math.pow(2, -2.5), "I(α)/I(0)");
     }
 
     @Test
     void pixelIntegratedGaussianHasSheppardVariance() {
         // A Gaussian integrated over unit pixels has variance σ² + 1/12 per axis (Sheppard's correction,
-        // Sheppard 1898, Proc. London Math. Soc. 29, 353 — from memory). Oversample 16: midpoint-rule error ~1e-4.
+        // Sheppard 1898, Proc. London Math. Soc. 29, 353 — from memory). Integrated by the midpoint rule on
+        // k = 16 sub-pixels, the pixel box becomes k equally spaced points of variance (1 − 1/k²)/12 (the
+        // variance of a discrete uniform distribution, common practice), so the kernel's variance is
+        // σ² + (1 − 1/k²)/12 up to the aliasing term exp(−2π²σ²) < 1e-20 (Poisson summation, common practice).
         double fwhm = 4.0;
-        double sigma = fwhm / 2.354820045;
+        int k2 = 16 * 16;
+        double sigma = fwhm / FWHM_PER_SIGMA;
         SyntheticModelPsf g = new SyntheticModelPsf(SyntheticModelPsf.Shape.GAUSSIAN, fwhm, 2.5, 31, 16, 0, 0);
         float[] k = g.centre().plane(0);
         double m2 = 0;
@@ -114,8 +153,8 @@ class FieldGeneratorTest {
                 sum += k[j * 31 + i];
             }
         }
-        assertEquals(1.0, sum, 1e-5, "unit sum");
-        assertEquals(sigma * sigma + 1.0 / 12, m2 / sum, 1e-3, "x variance");
+        assertEquals(1.0, sum, FLOAT_SUM_RTOL, "unit sum");
+        assertEquals(sigma * sigma + (1 - 1.0 / k2) / 12, m2 / sum, VARIANCE_ATOL, "x variance");
     }
 
     @Test
@@ -125,9 +164,15 @@ class FieldGeneratorTest {
         float[] right = new float[31 * 31];
         g.render(-0.5, 0, 0, 0, left);
         g.render(0.5, 0, 0, 0, right);
-        // FWHM 3·0.8 on the left, 3·1.2 on the right; peak ∝ 1/σ² for a well-sampled Gaussian.
+        // FWHM 3·0.8 on the left, 3·1.2 on the right. The centre pixel of a pixel-integrated Gaussian holds
+        // erf(1/(2√2σ))² of the flux (integral of the normal density; Hipparchus 4.0.3 Erf); 1/σ² would
+        // be the point-sampled law and is 4 % off at σ ≈ 1 px.
+        double sigmaLeft = 3 * 0.8 / FWHM_PER_SIGMA;
+        double sigmaRight = 3 * 1.2 / FWHM_PER_SIGMA;
+        double expected = Math.pow(Erf.erf(1 / (2 * Math.sqrt(2) * sigmaLeft))
+                / Erf.erf(1 / (2 * Math.sqrt(2) * sigmaRight)), 2);
         double ratio = left[15 * 31 + 15] / (double) right[15 * 31 + 15];
-        assertEquals(1.2 * 1.2 / (0.8 * 0.8), ratio, 0.1, "peak ratio");
+        assertEquals(expected, ratio, PEAK_RATIO_RTOL * expected, "peak ratio");
     }
 
     static Stream<Long> forwardSeeds() {
@@ -170,8 +215,7 @@ class FieldGeneratorTest {
                 actual[y * w + x] = (float) (f.noiseless().get(x, y) - s.detector().sky());
             }
         }
-        // float32 FFT convolution of the extended part: ~1e-6 of the largest value (float epsilon × log n).
-        ArrayAssert.assertClose(expected, actual, w, 1e-5, 1e-5 * max);
+        ArrayAssert.assertClose(expected, actual, w, FFT_CONVOLUTION_RTOL, FFT_CONVOLUTION_RTOL * max);
     }
 
     static Stream<Long> seeds() {
@@ -225,8 +269,8 @@ class FieldGeneratorTest {
         for (double q : new double[] {20, 100, 1000, 1e4}) {
             double p = (Math.pow(q, -gamma) - Math.pow(fmax, -gamma)) / (Math.pow(fmin, -gamma) - Math.pow(fmax, -gamma));
             long above = cat.stream().filter(t -> t.flux() > q).count();
-            // Binomial standard error, 5σ band.
-            assertEquals(p, above / (double) n, 5 * Math.sqrt(p * (1 - p) / n), "fraction above " + q);
+            // Binomial standard error √(p(1 − p)/n) (any statistics text), SE_BAND wide.
+            assertEquals(p, above / (double) n, SE_BAND * Math.sqrt(p * (1 - p) / n), "fraction above " + q);
         }
         assertTrue(cat.stream().allMatch(t -> t.flux() >= fmin && t.flux() <= fmax));
     }

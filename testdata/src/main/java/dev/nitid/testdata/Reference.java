@@ -13,7 +13,8 @@ import java.util.List;
  * {@code gen_*.py} scripts beside them, whose README names every source and version.
  */
 public final class Reference {
-    private static final String ROOT = "/dev/nitid/testdata/reference/";
+    private static final String BUNDLED_ROOT = "/dev/nitid/testdata/";
+    private static final String ROOT = BUNDLED_ROOT + "reference/";
 
     private Reference() {
     }
@@ -30,6 +31,36 @@ public final class Reference {
             throw new IllegalArgumentException("no reference file " + path + " under " + ROOT);
         }
         return in;
+    }
+
+    /**
+     * Opens a file bundled elsewhere under {@code dev/nitid/testdata/} ({@code convolution/}, {@code hostile/},
+     * {@code psf/}, {@code stars/}). Tests in other modules read through this class rather than their own
+     * {@code Class.getResourceAsStream}: on the module path a class finds only its own module's resources,
+     * and this class lives in the module that holds the files.
+     *
+     * @param path path below {@code dev/nitid/testdata/}, e.g. {@code "psf/moffat2d_astropy.csv"}
+     * @return the stream (caller closes)
+     * @throws IllegalArgumentException if there is no such file
+     */
+    public static InputStream openBundled(String path) {
+        InputStream in = Reference.class.getResourceAsStream(BUNDLED_ROOT + path);
+        if (in == null) {
+            throw new IllegalArgumentException("no bundled test file " + path + " under " + BUNDLED_ROOT);
+        }
+        return in;
+    }
+
+    /**
+     * @param path path below {@code dev/nitid/testdata/}
+     * @return the bytes of a bundled file (see {@link #openBundled})
+     */
+    public static byte[] bundledBytes(String path) {
+        try (InputStream in = openBundled(path)) {
+            return in.readAllBytes();
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
     }
 
     /** @return the bytes of a reference file */

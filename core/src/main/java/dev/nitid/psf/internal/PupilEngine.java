@@ -1,8 +1,8 @@
 package dev.nitid.psf.internal;
 
 import dev.nitid.fft.FftSizes;
+import dev.nitid.fft.internal.WorkerPool;
 import java.util.Arrays;
-import java.util.stream.IntStream;
 import org.jtransforms.fft.DoubleFFT_1D;
 
 /**
@@ -34,9 +34,10 @@ import org.jtransforms.fft.DoubleFFT_1D;
  *
  * <h2>Cost</h2>
  * Only the rows crossing the pupil are transformed, then only the columns the stamp needs, and only the
- * stamp's rows of those are kept (a pruned 2-D FFT); rows and columns are spread over the common
- * fork-join pool in fixed chunks, each output sample written by one task, so the result is identical
- * whatever the number of threads.
+ * stamp's rows of those are kept (a pruned 2-D FFT); rows and columns are cut into a fixed number of
+ * interleaved chunks ({@value #CHUNKS}) spread over the caller's thread count (a {@link WorkerPool} held for
+ * one render), each output sample written by one chunk, so the result is identical whatever the number of
+ * threads.
  *
  * <p>Stateless; each call allocates its own buffers.
  */
@@ -90,10 +91,15 @@ public final class PupilEngine {
      * @param shiftY         pattern offset in fine samples, y
      * @param centreIndex    fine index whose sample sits at offset −shift from the PSF centre
      * @param minPupilSamples fewest samples across the pupil diameter
+     * @param threads        worker threads including the caller's, ≥ 1 (the result does not depend on it)
      * @return the samples and the grid used
      */
     public static Result render(Aperture aperture, double[] samplesPerLD, double[] weights, double[] waveScale,
-                                int stamp, double shiftX, double shiftY, int centreIndex, int minPupilSamples) {
+                                int stamp, double shiftX, double shiftY, int centreIndex, int minPupilSamples,
+                                int threads) {
+        if (threads < 1) {
+            throw new IllegalArgumentException("threads is " + threads + ": use at least 1");
+        }
         double sMax = Arrays.stream(samplesPerLD).max().orElseThrow();
         double sMin = Arrays.stream(samplesPerLD).min().orElseThrow();
         int m = 1;
@@ -123,45 +129,52 @@ public final class PupilEngine {
         int nRows = hi - lo + 1;
         double[] rows = new double[2 * n * nRows];
         int chunks = Math.max(1, Math.min(CHUNKS, stamp));
-        for (int l = 0; l < nl; l++) {
-            double sp = samplesPerLD[l] / m;
-            double radius = 0.5 * n * sp;
-            diam[l] = 2 * radius;
-            Arrays.fill(rows, 0);
-            double[] sums = fillPupil(rows, lo, hi, n, radius, aperture, waveScale[l], m * shiftX, m * shiftY);
-            sumT[l] = sums[0];
-            sumT2[l] = sums[1];
-            double norm = (double) m * m * weights[l] / ((double) n * n * sums[0]);
-            IntStream.range(0, chunks).parallel().forEach(ch -> {
-                DoubleFFT_1D fft = new DoubleFFT_1D(n);
-                double[] row = new double[2 * n];
-                for (int r = ch; r < nRows; r += chunks) {
-                    System.arraycopy(rows, 2 * n * r, row, 0, 2 * n);
-                    fft.complexForward(row);
-                    System.arraycopy(row, 0, rows, 2 * n * r, 2 * n);
-                }
-            });
-            IntStream.range(0, chunks).parallel().forEach(ch -> {
-                DoubleFFT_1D fft = new DoubleFFT_1D(n);
-                double[] col = new double[2 * n];
-                for (int gx = ch; gx < stamp; gx += chunks) {
-                    int kx = kIndex[gx];
-                    Arrays.fill(col, 0);
-                    for (int r = 0; r < nRows; r++) {
-                        int src = 2 * n * r + 2 * kx;
-                        col[2 * (lo + r)] = rows[src];
-                        col[2 * (lo + r) + 1] = rows[src + 1];
+        try (WorkerPool pool = new WorkerPool(Math.min(threads, chunks))) {
+            for (int l = 0; l < nl; l++) {
+                double sp = samplesPerLD[l] / m;
+                double radius = 0.5 * n * sp;
+                diam[l] = 2 * radius;
+                Arrays.fill(rows, 0);
+                double[] sums = fillPupil(rows, lo, hi, n, radius, aperture, waveScale[l], m * shiftX, m * shiftY);
+                sumT[l] = sums[0];
+                sumT2[l] = sums[1];
+                double norm = (double) m * m * weights[l] / ((double) n * n * sums[0]);
+                pool.run(chunks, (worker, from, to) -> {
+                    DoubleFFT_1D fft = new DoubleFFT_1D(n);
+                    double[] row = new double[2 * n];
+                    for (int ch = from; ch < to; ch++) {
+                        for (int r = ch; r < nRows; r += chunks) {
+                            System.arraycopy(rows, 2 * n * r, row, 0, 2 * n);
+                            fft.complexForward(row);
+                            System.arraycopy(row, 0, rows, 2 * n * r, 2 * n);
+                        }
                     }
-                    fft.complexForward(col);
-                    for (int gy = 0; gy < stamp; gy++) {
-                        int k = 2 * kIndex[gy];
-                        double re = col[k];
-                        double im = col[k + 1];
-                        // each (gx, gy) belongs to one task and wavelengths run in order: thread-count independent
-                        acc[gy * stamp + gx] += norm * (re * re + im * im);
+                });
+                pool.run(chunks, (worker, from, to) -> {
+                    DoubleFFT_1D fft = new DoubleFFT_1D(n);
+                    double[] col = new double[2 * n];
+                    for (int ch = from; ch < to; ch++) {
+                        for (int gx = ch; gx < stamp; gx += chunks) {
+                            int kx = kIndex[gx];
+                            Arrays.fill(col, 0);
+                            for (int r = 0; r < nRows; r++) {
+                                int src = 2 * n * r + 2 * kx;
+                                col[2 * (lo + r)] = rows[src];
+                                col[2 * (lo + r) + 1] = rows[src + 1];
+                            }
+                            fft.complexForward(col);
+                            for (int gy = 0; gy < stamp; gy++) {
+                                int k = 2 * kIndex[gy];
+                                double re = col[k];
+                                double im = col[k + 1];
+                                // each (gx, gy) belongs to one chunk and wavelengths run in order: thread-count
+                                // independent
+                                acc[gy * stamp + gx] += norm * (re * re + im * im);
+                            }
+                        }
                     }
-                }
-            });
+                });
+            }
         }
         float[] fine = new float[stamp * stamp];
         for (int i = 0; i < fine.length; i++) {
