@@ -156,7 +156,7 @@ public final class SharpenCommand implements Callable<Integer> {
 
     @Option(names = "--iterations", paramLabel = "N",
             description = "Run exactly N Richardson-Lucy iterations. Default: stop automatically when the residual "
-                    + "reaches the noise (at most 100).")
+                    + "reaches the noise (at most " + dev.nitid.restore.Stopping.ACCELERATED_CAP + ").")
     Integer iterations;
 
     @Option(names = "--overwrite", description = "Replace OUT.fits if it exists.")
