@@ -156,7 +156,7 @@ public final class SharpenCommand implements Callable<Integer> {
 
     @Option(names = "--iterations", paramLabel = "N",
             description = "Run exactly N Richardson-Lucy iterations. Default: stop automatically when the residual "
-                    + "reaches the noise (at most 100).")
+                    + "reaches the noise (at most " + dev.nitid.restore.Stopping.ACCELERATED_CAP + ").")
     Integer iterations;
 
     @Option(names = "--overwrite", description = "Replace OUT.fits if it exists.")
@@ -540,6 +540,7 @@ public final class SharpenCommand implements Callable<Integer> {
             case ACCELERATED_RL -> "accelerated Richardson-Lucy";
             case RICHARDSON_LUCY -> "Richardson-Lucy";
             case TV_RL -> "TV-regularised Richardson-Lucy";
+            case ACCELERATED_TV_RL -> "accelerated TV-regularised Richardson-Lucy";
             case DAMPED_RL -> "damped Richardson-Lucy";
             case WIENER -> "Wiener filter";
             case TIKHONOV -> "Tikhonov filter";

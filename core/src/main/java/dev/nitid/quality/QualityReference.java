@@ -186,4 +186,42 @@ public final class QualityReference {
     public int nebulaPixels() {
         return ladder.pixelCount();
     }
+
+    /** @return the radius of the flux metric's aperture, px: max(apertureFwhm · input FWHM, apertureMin) */
+    public double apertureRadius() {
+        return apertureRadius;
+    }
+
+    /**
+     * The flux ratio a perfect restoration scores: the observed aperture misses the PSF's light beyond the
+     * radius, which a perfect restoration puts back into the star, so the ideal is {@code 1 / EE(r)} with
+     * {@code EE(r) = Σ psf} over the pixels within {@code r} of the PSF centre (⌊w/2⌋, ⌊h/2⌋), for a unit-sum
+     * PSF (encircled energy, Born &amp; Wolf, Principles of Optics, §8.5.2, section from memory; definition of the metric).
+     *
+     * @param psf    the PSF (input, not modified), normalised here to unit sum
+     * @param radius aperture radius, px
+     * @return {@code 1 / EE(radius)}
+     */
+    public static double idealFluxRatio(Image psf, double radius) {
+        if (!(radius > 0)) {
+            throw new IllegalArgumentException("aperture radius is " + radius + ": use a value > 0");
+        }
+        int cx = psf.width() / 2;
+        int cy = psf.height() / 2;
+        double total = 0;
+        double inside = 0;
+        for (int y = 0; y < psf.height(); y++) {
+            for (int x = 0; x < psf.width(); x++) {
+                double v = psf.get(x, y);
+                total += v;
+                if (Math.hypot(x - cx, y - cy) <= radius) {
+                    inside += v;
+                }
+            }
+        }
+        if (!(inside > 0)) {
+            throw new IllegalArgumentException("the PSF holds no light within " + radius + " px of its centre");
+        }
+        return total / inside;
+    }
 }

@@ -22,6 +22,18 @@ public enum Method {
      */
     TV_RL,
     /**
+     * {@link #TV_RL} with the vector extrapolation of {@link #ACCELERATED_RL} (Biggs &amp; Andrews 1997, Applied
+     * Optics 36, 1766): the TV-regularised update is a fixed-point map like plain RL's, so the same predictor
+     * {@code y = max(0, x_k + α (x_k − x_{k−1}))}, {@code α = Σ g_{k−1} g_{k−2} / Σ g_{k−2}²} clipped to
+     * [0, 0.5], applies to it; the TV term is evaluated at {@code y} and the star floor is applied after each
+     * step. Our variants, measured on the harness and a 24-megapixel frame (docs/restore.md): the sums of α
+     * run over the protected stars' cores (over every pixel when there are none), because on the sky the TV
+     * term makes successive changes anti-correlated; and α is clipped at 0.5, not just below 1, because
+     * larger steps dug dark rings beside bright stars. When the correlation turns negative the
+     * extrapolation restarts (two plain steps). Reaches TV-RL's sharpness in under half the iterations.
+     */
+    ACCELERATED_TV_RL,
+    /**
      * Damped Richardson–Lucy (White 1994, Proc. SPIE 2198, 1342; form from memory): residuals below about
      * {@code T} standard deviations stop driving the update, so flat noisy areas are not turned into mottle.
      * {@code T} is {@link RestoreSettings#dampingSigma()}.

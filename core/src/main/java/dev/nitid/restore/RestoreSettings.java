@@ -60,13 +60,15 @@ public record RestoreSettings(Method method, EdgeHandling edges, Stopping stoppi
 
     /**
      * The best general setting we measured on the quality harness (see docs/restore.md): TV-regularised
-     * Richardson–Lucy (λ = {@value #DEFAULT_TV_WEIGHT}), reflective edges, stop at χ²/N = 1, noise model estimated from the sky, ring floor around bright
-     * stars, all available cores.
+     * Richardson–Lucy (λ = {@value #DEFAULT_TV_WEIGHT}) with Biggs &amp; Andrews' extrapolation, reflective
+     * edges, stop at χ²/N = 1 within {@value Stopping#ACCELERATED_CAP}
+     * iterations ({@link Stopping#accelerated()}), noise model estimated from the sky, ring floor around
+     * bright stars, all available cores. It comes within the quality margins of TV-RL at 100 iterations in under half the iterations.
      *
      * @return the defaults
      */
     public static RestoreSettings defaults() {
-        return new RestoreSettings(Method.TV_RL, EdgeHandling.REFLECT, Stopping.chiSquare(),
+        return new RestoreSettings(Method.ACCELERATED_TV_RL, EdgeHandling.REFLECT, Stopping.accelerated(),
                 NoiseModel.estimated(), StarProtection.ringFloor(), Double.POSITIVE_INFINITY,
                 DEFAULT_TV_WEIGHT, DEFAULT_DAMPING_SIGMA, Double.NaN,
                 Runtime.getRuntime().availableProcessors());

@@ -18,6 +18,36 @@ import org.junit.jupiter.params.provider.MethodSource;
 
 /** Every method and edge mode on awkward sizes, masks, stopping rules, the noise model and the Wiener oracles. */
 class MethodsAndEdgesTest {
+    /**
+     * The round trip must cut the interior rms error to below this fraction of the input's (project target,
+     * no source: the damped form stops fitting residuals below T σ and Tikhonov smooths points, by design,
+     * so they cannot be asked for more).
+     */
+    private static final double MAX_ERROR_FRACTION = 0.9;
+    /**
+     * The extended domain's edge-band error may exceed reflection's (and, on isolated stars, zero edges') by
+     * this factor (project target, no source: on isolated stars they are on a par, docs/restore.md "Edges").
+     */
+    private static final double EXTENDED_VS_REFLECT_SLACK = 1.05;
+    /** A masked pixel's fill may differ from the unmasked restoration by this fraction of the flat level (project target, no source). */
+    private static final double FILL_FRACTION = 0.05;
+    /**
+     * A star 10 px or more from every masked pixel, beyond the 9² PSF's reach, restores as without the mask
+     * within this relative difference (project target, no source; only round-off and the global start value differ).
+     */
+    private static final double FAR_STAR_FRACTION = 0.01;
+    /** Star peaks with and without a subtracted sky agree within this fraction (project target, no source). */
+    private static final double SUBTRACTED_PEAK_FRACTION = 0.1;
+    /** Likelihood gain per pixel at which the LIKELIHOOD_GAIN rule stops in the test (project choice). */
+    private static final double LIKELIHOOD_GAIN = 0.05;
+    /**
+     * Relative tolerance of the estimated gain and pedestal: the MAD-based σ of 16 384 pixels has about 1 %
+     * standard error (MAD efficiency 37 %, Rousseeuw &amp; Croux 1993, JASA 88, 1273), so the gain (∝ 1/σ²)
+     * about 2 %; 5 % is 2.5 standard errors.
+     */
+    private static final double NOISE_MODEL_FRACTION = 0.05;
+    /** The difference-based σ may fall this fraction below the sky's Poisson σ (statistical slack, as above). */
+    private static final double SIGMA_LOWER_SLACK = 0.95;
 
     static Stream<Arguments> methodsAndSizes() {
         Stream.Builder<Arguments> b = Stream.builder();
@@ -56,7 +86,7 @@ class MethodsAndEdgesTest {
         double before = rms(d, truth, 3);
         double after = rms(r.image(), truth, 3);
         // 0.9: the damped form stops fitting residuals below T σ and Tikhonov smooths points, by design
-        assertTrue(after < 0.9 * before, m + " " + e + ": interior rms error " + after + " vs " + before + " before");
+        assertTrue(after < MAX_ERROR_FRACTION * before, m + " " + e + ": interior rms error " + after + " vs " + before + " before");
         assertEquals(m.iterative() ? 20 : 0, r.iterations());
     }
 
@@ -141,9 +171,16 @@ class MethodsAndEdgesTest {
         }
         System.out.println("edge band rms (6 px) vs interior, " + kind + ": " + report);
         double ext = band[EdgeHandling.EXTENDED_DOMAIN.ordinal()];
-        assertTrue(ext < band[EdgeHandling.ZERO.ordinal()], report.toString());
+        // Zero edges always divide by s = Kᵀw (boundary-correct); on isolated stars little light crosses the
+        // edge, so they match the extended domain there (80.1 vs 80.2 when measured), and only the smooth scene
+        // must show the extended domain's advantage (469.7 vs 1.4)
+        if (kind.equals("smooth")) {
+            assertTrue(ext < band[EdgeHandling.ZERO.ordinal()], report.toString());
+        } else {
+            assertTrue(ext <= EXTENDED_VS_REFLECT_SLACK * band[EdgeHandling.ZERO.ordinal()], report.toString());
+        }
         assertTrue(ext < band[EdgeHandling.PERIODIC.ordinal()], report.toString());
-        assertTrue(ext <= 1.05 * band[EdgeHandling.REFLECT.ordinal()], report.toString());
+        assertTrue(ext <= EXTENDED_VS_REFLECT_SLACK * band[EdgeHandling.REFLECT.ordinal()], report.toString());
     }
 
     private static Image crop(Image a, int off, int w) {
@@ -179,10 +216,10 @@ class MethodsAndEdgesTest {
         for (int[] p : new int[][] {{10, 10}, {30, 12}, {35, 35}}) {
             float v = r.image().get(p[0], p[1]);
             assertTrue(Float.isFinite(v), "masked pixel " + p[0] + "," + p[1] + " is " + v);
-            assertEquals(clean.get(p[0], p[1]), v, 0.05 * 30, "fill at " + p[0] + "," + p[1]);
+            assertEquals(clean.get(p[0], p[1]), v, FILL_FRACTION * 30, "fill at " + p[0] + "," + p[1]);
         }
         // the star far from the bad pixels restores as without them
-        assertEquals(clean.get(20, 24), r.image().get(20, 24), 0.01 * clean.get(20, 24));
+        assertEquals(clean.get(20, 24), r.image().get(20, 24), FAR_STAR_FRACTION * clean.get(20, 24), "star at 20,24");
         for (Method m : new Method[] {Method.WIENER, Method.TIKHONOV}) {
             Image w = Restorers.create(s.withMethod(m)).restore(bad, psf).image();
             assertTrue(Double.isFinite(w.stats(0).sum()) && w.stats(0).nonFinite() == 0, m + " output finite");
@@ -209,7 +246,7 @@ class MethodsAndEdgesTest {
         for (int[] st : sc.brightStars) {
             double p1 = o1.get(st[0], st[1]) - 100;
             double p2 = o2.get(st[0], st[1]);
-            assertEquals(p1, p2, 0.1 * p1, "star at " + st[0] + "," + st[1]);
+            assertEquals(p1, p2, SUBTRACTED_PEAK_FRACTION * p1, "star at " + st[0] + "," + st[1]);
         }
         assertTrue(o2.stats(0).min() >= 0);
     }
@@ -224,13 +261,14 @@ class MethodsAndEdgesTest {
         RestorationResult r = Restorers.create(s).restore(sc.observed, sc.psf);
         assertEquals(StopReason.CHI_SQUARE_REACHED, r.stopReason(), "after " + r.iterations() + " iterations");
         var h = r.planes().get(0).history();
-        assertTrue(h.get(h.size() - 1).chiSquare() <= 1.0);
-        assertTrue(h.size() == 1 || h.get(h.size() - 2).chiSquare() > 1.0, "stopped at the first crossing");
-        RestorationResult g = Restorers.create(s.withStopping(Stopping.likelihoodGain(0.05))).restore(sc.observed, sc.psf);
+        double target = s.stopping().threshold();
+        assertTrue(h.get(h.size() - 1).chiSquare() <= target, "last χ²/N " + h.get(h.size() - 1).chiSquare());
+        assertTrue(h.size() == 1 || h.get(h.size() - 2).chiSquare() > target, "stopped at the first crossing");
+        RestorationResult g = Restorers.create(s.withStopping(Stopping.likelihoodGain(LIKELIHOOD_GAIN))).restore(sc.observed, sc.psf);
         assertEquals(StopReason.LIKELIHOOD_CONVERGED, g.stopReason());
         var gh = g.planes().get(0).history();
         double last = gh.get(gh.size() - 1).logLikelihood() - gh.get(gh.size() - 2).logLikelihood();
-        assertTrue(last / (128 * 128) < 0.05);
+        assertTrue(last / (128 * 128) < LIKELIHOOD_GAIN, "last gain per pixel " + last / (128 * 128));
     }
 
     @Test
@@ -246,8 +284,7 @@ class MethodsAndEdgesTest {
         RestorationResult r = Restorers.create(RestoreSettings.defaults().withIterations(1).withThreads(1))
                 .restore(sky, Fixtures.gaussianPsf(5, 1));
         NoiseModel nm = r.planes().get(0).noise();
-        // MAD-based σ of 16384 pixels: about 1 % standard error, so the gain (∝ 1/σ²) within 5 %
-        assertEquals(200.0 / 225, nm.gain(), 0.05 * 200 / 225);
+        assertEquals(200.0 / 225, nm.gain(), NOISE_MODEL_FRACTION * 200 / 225);
         assertEquals(0, nm.pedestal(), "a 200 e⁻ sky is above MIN_SKY_SIGMAS·σ: no pedestal");
         Image sub = sky.copy();
         for (int i = 0; i < a.length; i++) {
@@ -255,7 +292,7 @@ class MethodsAndEdgesTest {
         }
         NoiseModel ns = Restorers.create(RestoreSettings.defaults().withIterations(1).withThreads(1))
                 .restore(sub, Fixtures.gaussianPsf(5, 1)).planes().get(0).noise();
-        assertEquals(NoiseModel.MIN_SKY_SIGMAS * Math.sqrt(225), ns.pedestal(), 0.05 * 150, "pedestal 10σ");
+        assertEquals(NoiseModel.MIN_SKY_SIGMAS * Math.sqrt(225), ns.pedestal(), NOISE_MODEL_FRACTION * 150, "pedestal 10σ");
     }
 
     @Test
@@ -280,7 +317,7 @@ class MethodsAndEdgesTest {
         double madAll = img.stats(0).madSigma();
         var est = dev.nitid.restore.internal.SkyNoise.of(img.plane(0), null, n, n);
         // the median pixel sits on the nebula's outskirts: σ between √100 and √(100 + 400·e^{-1/2}) (Poisson)
-        assertTrue(est.sigma() > 10 * 0.95 && est.sigma() < Math.sqrt(100 + 400 * Math.exp(-0.5)),
+        assertTrue(est.sigma() > 10 * SIGMA_LOWER_SLACK && est.sigma() < Math.sqrt(100 + 400 * Math.exp(-0.5)),
                 "difference-based σ " + est.sigma() + " (plain MAD " + madAll + ")");
         assertTrue(madAll > 3 * est.sigma(), "the nebula inflates the plain MAD: " + madAll);
         // 3σ clipping moves the level from the frame's median (raised by the nebula) towards the 100 e⁻ sky

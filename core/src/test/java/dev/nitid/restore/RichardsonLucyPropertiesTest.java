@@ -133,6 +133,19 @@ class RichardsonLucyPropertiesTest {
     }
 
     @Test
+    void acceleratedTvWithProtectedStarsIsTheSameForAnyThreadCount() {
+        // the default path: α over the protected stars' cores (a list summed in order), ring floor, TV rows
+        Scene scene = new Scene(3, 96, 3.5, 200, 5);
+        RestoreSettings s = RestoreSettings.defaults().withIterations(12);
+        RestorationResult one = Restorers.create(s.withThreads(1)).restore(scene.observed, scene.psf);
+        assertTrue(one.planes().get(0).protectedStars() > 0, "the scene must have protected stars");
+        for (int threads : new int[] {2, 3}) {
+            float[] b = Restorers.create(s.withThreads(threads)).restore(scene.observed, scene.psf).image().plane(0);
+            assertArrayEquals(one.image().plane(0), b, threads + " threads: results must not depend on the thread count");
+        }
+    }
+
+    @Test
     void acceleratedReachesTheSameLikelihoodInFewerIterations() {
         // Biggs & Andrews (1997): the same likelihood in fewer iterations
         SplittableRandom rnd = new SplittableRandom(5);
@@ -158,6 +171,38 @@ class RichardsonLucyPropertiesTest {
                 + reached + " iterations");
         assertTrue(reached > 0 && reached <= plainIters / 2,
                 "accelerated RL reached plain RL's 40-iteration likelihood after " + reached + " iterations");
+    }
+
+    /**
+     * Iterations the accelerated TV form may take to reach TV-RL's 60-iteration likelihood. With α clipped at
+     * {@link dev.nitid.restore.internal.RlPlan#ACCEL_MAX_TV} = 0.5 an extrapolated step is at most
+     * 1/(1 − α) = 2 plain steps (geometric series; Biggs &amp; Andrews 1997 for the predictor), so the gain is
+     * at most 2×; we require 1.5×, i.e. 40 of 60 (project target, no source).
+     */
+    private static final int TV_ACCELERATED_MAX_ITERATIONS = 40;
+
+    @Test
+    void acceleratedTvReachesTvLikelihoodInFewerIterations() {
+        // the extrapolation applies to any fixed-point map, TV-RL's too (Biggs & Andrews 1997); run with the
+        // defaults (ring floor, α over the protected stars' discs) on the noisy Moffat field of StarProtectionTest
+        Scene scene = new Scene(1, 256, 4.0, 200, 5);
+        int tvIters = 60;
+        RestoreSettings tv = RestoreSettings.defaults().withMethod(Method.TV_RL).withIterations(tvIters).withThreads(1);
+        List<IterationRecord> th = Restorers.create(tv).restore(scene.observed, scene.psf).planes().get(0).history();
+        double target = th.get(tvIters - 1).logLikelihood();
+        List<IterationRecord> ah = Restorers.create(tv.withMethod(Method.ACCELERATED_TV_RL))
+                .restore(scene.observed, scene.psf).planes().get(0).history();
+        int reached = -1;
+        for (IterationRecord r : ah) {
+            if (r.logLikelihood() >= target) {
+                reached = r.iteration();
+                break;
+            }
+        }
+        System.out.println("accelerated TV-RL reached TV-RL's " + tvIters + "-iteration likelihood after "
+                + reached + " iterations");
+        assertTrue(reached > 0 && reached <= TV_ACCELERATED_MAX_ITERATIONS,
+                "accelerated TV-RL reached TV-RL's " + tvIters + "-iteration likelihood after " + reached + " iterations");
     }
 
     @Test

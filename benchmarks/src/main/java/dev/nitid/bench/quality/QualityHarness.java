@@ -6,6 +6,7 @@ import dev.nitid.restore.RestorationResult;
 import dev.nitid.restore.RestoreSettings;
 import dev.nitid.restore.Restorers;
 import dev.nitid.restore.StarProtection;
+import dev.nitid.restore.Stopping;
 import dev.nitid.quality.QualityReference;
 import dev.nitid.quality.QualityReport;
 import dev.nitid.quality.QualitySettings;
@@ -52,10 +53,13 @@ public final class QualityHarness {
         m.add(new Entry("plain RL, 30 it, sky floor", plain.withProtection(StarProtection.skyFloor())));
         m.add(new Entry("plain RL, 30 it, ring floor", plain.withProtection(StarProtection.ringFloor())));
         m.add(new Entry("defaults (" + describe(d) + ")", d));
-        m.add(new Entry("accelerated RL, " + describe(d.withMethod(Method.ACCELERATED_RL)).replaceFirst("^[^,]*, ", ""),
-                d.withMethod(Method.ACCELERATED_RL)));
-        m.add(new Entry("TV-RL, " + describe(d).replaceFirst("^[^,]*, ", ""), d.withMethod(Method.TV_RL)));
-        m.add(new Entry("damped RL, " + describe(d).replaceFirst("^[^,]*, ", ""), d.withMethod(Method.DAMPED_RL)));
+        // the other iterative methods with the previous default rule (χ²/N = 1, cap 100), for comparison
+        RestoreSettings chi1 = d.withStopping(Stopping.chiSquare());
+        m.add(new Entry("accelerated RL, " + describe(chi1.withMethod(Method.ACCELERATED_RL)).replaceFirst("^[^,]*, ", ""),
+                chi1.withMethod(Method.ACCELERATED_RL)));
+        m.add(new Entry("TV-RL, " + describe(chi1).replaceFirst("^[^,]*, ", "") + " (previous default)",
+                chi1.withMethod(Method.TV_RL)));
+        m.add(new Entry("damped RL, " + describe(chi1).replaceFirst("^[^,]*, ", ""), chi1.withMethod(Method.DAMPED_RL)));
         m.add(new Entry("Wiener (K estimated)", d.withMethod(Method.WIENER)));
         m.add(new Entry("Tikhonov", d.withMethod(Method.TIKHONOV)));
         return m;
@@ -130,11 +134,16 @@ public final class QualityHarness {
                 f.observed().width(), f.observed().height(), f.catalogue().size(), settings.seed(),
                 ref.inputSigma(), ref.inputFwhm(), ref.fwhmStars().size(), ref.ringStars().size(),
                 ref.nebulaPixels(), build);
-        o.println("| method | iterations (stop) | FWHM ratio | ring depth (sigma) | error vs truth | flux ratio | noise ratio | time (s) |");
-        o.println("|---|---|---:|---:|---:|---:|---:|---:|");
-        row(o, "input (no restoration)", "-", ref.evaluate(f.observed()), 0);
+        // a perfect restoration puts the light the aperture misses back into the star: judge flux against that
+        double ideal = QualityReference.idealFluxRatio(f.psf(), ref.apertureRadius());
+        o.printf(Locale.ROOT, "Flux aperture r = %.1f px holds %.1f %% of the PSF's light: a perfect restoration "
+                + "scores a flux ratio of %.3f; the \"flux / ideal\" column divides by it.%n%n",
+                ref.apertureRadius(), 100 / ideal, ideal);
+        o.println("| method | iterations (stop) | FWHM ratio | ring depth (sigma) | error vs truth | flux ratio | flux / ideal | noise ratio | time (s) |");
+        o.println("|---|---|---:|---:|---:|---:|---:|---:|---:|");
+        row(o, "input (no restoration)", "-", ref.evaluate(f.observed()), 0, ideal);
         if (opt.score() != null) {
-            row(o, opt.score().getFileName().toString(), "?", ref.evaluate(Npy.read(opt.score())), 0);
+            row(o, opt.score().getFileName().toString(), "?", ref.evaluate(Npy.read(opt.score())), 0, ideal);
         }
         for (Entry m : methods()) {
             if (!opt.wants(m.name())) {
@@ -144,7 +153,7 @@ public final class QualityHarness {
             RestorationResult r = Restorers.create(m.settings()).restore(f.observed(), f.psf());
             double secs = (System.nanoTime() - t) / 1e9;
             String it = m.settings().method().iterative() ? r.iterations() + " (" + r.stopReason() + ")" : "-";
-            row(o, m.name(), it, ref.evaluate(r.image()), secs);
+            row(o, m.name(), it, ref.evaluate(r.image()), secs, ideal);
             Npy.write(dir.resolve(slug(m.name()) + ".npy"), r.image());
         }
         if (python) {
@@ -157,9 +166,9 @@ public final class QualityHarness {
             if (code == 0 && Files.exists(result)) {
                 double secs = Double.parseDouble(Files.readString(dir.resolve("skimage_rl.seconds")).trim());
                 row(o, "scikit-image " + log + " richardson_lucy (clip=False)", String.valueOf(ITERATIONS),
-                        ref.evaluate(Npy.read(result)), secs);
+                        ref.evaluate(Npy.read(result)), secs, ideal);
             } else {
-                o.println("| scikit-image RL | (failed: " + log.replace('\n', ' ') + ") | | | | | | |");
+                o.println("| scikit-image RL | (failed: " + log.replace('\n', ' ') + ") | | | | | | | |");
             }
         }
     }
@@ -167,7 +176,8 @@ public final class QualityHarness {
     /** @return "method, stopping rule, star guard" of a setting, so that the table labels follow the defaults */
     static String describe(RestoreSettings s) {
         return s.method().name().toLowerCase(Locale.ROOT).replace('_', '-') + ", "
-                + s.stopping().rule().name().toLowerCase(Locale.ROOT).replace('_', ' ') + ", guard "
+                + s.stopping().rule().name().toLowerCase(Locale.ROOT).replace('_', ' ')
+                + String.format(Locale.ROOT, " %s, cap %d", s.stopping().threshold(), s.stopping().maxIterations()) + ", guard "
                 + s.protection().guard().name().toLowerCase(Locale.ROOT).replace('_', ' ');
     }
 
@@ -185,8 +195,8 @@ public final class QualityHarness {
         return Files.isExecutable(Path.of("/usr/bin/python3")) ? "/usr/bin/python3" : "python3";
     }
 
-    static void row(PrintStream o, String name, String iterations, QualityReport r, double seconds) {
-        o.printf(Locale.ROOT, "| %s | %s | %.3f | %.2f | %.3f | %.3f | %.3f | %.2f |%n", name, iterations, r.fwhmRatio(),
-                r.ringDepth(), r.errorRatio(), r.fluxRatio(), r.noiseRatio(), seconds);
+    static void row(PrintStream o, String name, String iterations, QualityReport r, double seconds, double ideal) {
+        o.printf(Locale.ROOT, "| %s | %s | %.3f | %.2f | %.3f | %.3f | %.3f | %.3f | %.2f |%n", name, iterations, r.fwhmRatio(),
+                r.ringDepth(), r.errorRatio(), r.fluxRatio(), r.fluxRatio() / ideal, r.noiseRatio(), seconds);
     }
 }

@@ -67,11 +67,18 @@ public final class Tune {
                 System.out.printf(Locale.ROOT, "  %-40s it %3d %-20s fwhm %.3f ring %6.2f err %.3f flux %.3f noise %.3f %5.1fs%n",
                         e.getKey(), r.iterations(), r.stopReason(), q.fwhmRatio(), q.ringDepth(), q.errorRatio(),
                         q.fluxRatio(), q.noiseRatio(), (System.nanoTime() - t) / 1e9);
+                if (Boolean.getBoolean("tune.history")) {
+                    StringBuilder b = new StringBuilder("    chi2/change:");
+                    for (var rec : r.planes().get(0).history()) {
+                        b.append(String.format(Locale.ROOT, " %d:%.3f/%.1e", rec.iteration(), rec.chiSquare(), rec.relativeChange()));
+                    }
+                    System.out.println(b);
+                }
             }
         }
     }
 
-    /** Parses "key=value,key=value" over the defaults: m=RL|ACC|TV|DAMPED, it=N, chi=T, g=ring|sky|none, marg, det, rad, tv, damp. */
+    /** Parses "key=value,key=value" over the defaults: m=RL|ACC|TV|ATV|DAMPED, it=N, chi=T (keeps the cap), cap=N, g=ring|sky|none, marg, det, rad, tv, damp. */
     static RestoreSettings parse(RestoreSettings d, String spec) {
         RestoreSettings s = d;
         StarProtection p = d.protection();
@@ -85,11 +92,15 @@ public final class Tune {
                     case "RL" -> Method.RICHARDSON_LUCY;
                     case "ACC" -> Method.ACCELERATED_RL;
                     case "TV" -> Method.TV_RL;
+                    case "ATV" -> Method.ACCELERATED_TV_RL;
                     case "W" -> Method.WIENER;
                     default -> Method.DAMPED_RL;
                 });
                 case "it" -> s = s.withIterations(Integer.parseInt(a[1]));
-                case "chi" -> s = s.withStopping(Stopping.chiSquare().withThreshold(Double.parseDouble(a[1])));
+                case "cap" -> s = s.withStopping(s.stopping().withMaxIterations(Integer.parseInt(a[1])));
+                case "chi" -> s = s.withStopping(Stopping.chiSquare().withThreshold(Double.parseDouble(a[1]))
+                        .withMaxIterations(s.stopping().rule() == dev.nitid.restore.StopRule.CHI_SQUARE
+                                ? s.stopping().maxIterations() : Stopping.DEFAULT_CAP));
                 case "g" -> p = switch (a[1]) {
                     case "ring" -> StarProtection.ringFloor();
                     case "sky" -> StarProtection.skyFloor();
