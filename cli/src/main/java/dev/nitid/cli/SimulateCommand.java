@@ -9,8 +9,8 @@ import dev.nitid.fits.WriteReport;
 import dev.nitid.image.Image;
 import dev.nitid.psf.GaussianPsf;
 import dev.nitid.psf.MoffatPsf;
+import dev.nitid.psf.PsfHeader;
 import dev.nitid.psf.PsfModel;
-import dev.nitid.psf.PsfParameter;
 import dev.nitid.psf.Psfs;
 import dev.nitid.synth.DetectorSettings;
 import dev.nitid.synth.ExtendedSettings;
@@ -290,18 +290,7 @@ public final class SimulateCommand implements Callable<Integer> {
         if (psfFile != null || !psfOptions.given()) {
             return h;
         }
-        for (PsfParameter p : psfOptions.toModel().parameters()) {
-            Object v = p.value();
-            if (v instanceof Double d) {
-                h = h.with(p.key(), d, p.comment());
-            } else if (v instanceof Long l) {
-                h = h.with(p.key(), l, p.comment());
-            } else if (v instanceof Boolean b) {
-                h = h.with(p.key(), b, p.comment());
-            } else {
-                h = h.with(p.key(), String.valueOf(v), p.comment());
-            }
-        }
+        h = PsfHeader.withModel(h, psfOptions.toModel());
         return h.with("SUBPIXEL", (long) psfOptions.oversample(), "sub-pixels per pixel per axis (1 = point sampled)");
     }
 

@@ -15,6 +15,31 @@ public final class PsfHeader {
     }
 
     /**
+     * Appends a model's parameter cards ({@link PsfModel#parameters()}) to a header: the model's shape,
+     * widths, optics and band, each under its own keyword with its comment.
+     *
+     * @param h     the header to extend (input, not modified)
+     * @param model the PSF model
+     * @return a new header: {@code h} followed by the model's cards
+     */
+    public static FitsHeader withModel(FitsHeader h, PsfModel model) {
+        FitsHeader out = h;
+        for (PsfParameter p : model.parameters()) {
+            Object v = p.value();
+            if (v instanceof Double d) {
+                out = out.with(p.key(), d, p.comment());
+            } else if (v instanceof Long l) {
+                out = out.with(p.key(), l, p.comment());
+            } else if (v instanceof Boolean b) {
+                out = out.with(p.key(), b, p.comment());
+            } else {
+                out = out.with(p.key(), String.valueOf(v), p.comment());
+            }
+        }
+        return out;
+    }
+
+    /**
      * Describes a rendered PSF.
      *
      * @param model      the model rendered (input, not modified)
@@ -30,19 +55,7 @@ public final class PsfHeader {
         if (producer == null) {
             throw new IllegalArgumentException("producer is null: name what rendered the PSF, e.g. \"nitid psf\"");
         }
-        FitsHeader h = FitsHeader.empty();
-        for (PsfParameter p : model.parameters()) {
-            Object v = p.value();
-            if (v instanceof Double d) {
-                h = h.with(p.key(), d, p.comment());
-            } else if (v instanceof Long l) {
-                h = h.with(p.key(), l, p.comment());
-            } else if (v instanceof Boolean b) {
-                h = h.with(p.key(), b, p.comment());
-            } else {
-                h = h.with(p.key(), (String) v, p.comment());
-            }
-        }
+        FitsHeader h = withModel(FitsHeader.empty(), model);
         h = h.with("PSFSIZE", (long) size, "[px] PSF image side (odd; centre pixel is the PSF centre)")
                 .with("SUBPIXEL", (long) oversample, "sub-pixels per pixel per axis (1 = point sampled)")
                 .with("PSFSUM", 1.0, "the image is normalised to sum 1");

@@ -1,6 +1,6 @@
 package dev.nitid.restore.internal;
 
-import java.util.Arrays;
+import dev.nitid.stars.internal.Select;
 
 /**
  * Robust sky level and sky noise of a frame, insensitive to smooth extended light and to stars.
@@ -93,63 +93,10 @@ public final class SkyNoise {
     /**
      * The sample median of {@code a[0, n)}, the same value as after {@code Arrays.sort} (middle value, or
      * the mean of the two middle values), found by selection in O(n) instead of sorting: the sort took
-     * most of the restoration's set-up on a 24-megapixel frame. Reorders {@code a[0, n)}.
+     * most of the restoration's set-up on a 24-megapixel frame. Reorders {@code a[0, n)}. The selection
+     * is the project's one float quickselect, {@code stars.internal.Select}.
      */
     static double median(float[] a, int n) {
-        int hi = n / 2;
-        select(a, 0, n - 1, hi);
-        if ((n & 1) == 1) {
-            return a[hi];
-        }
-        // after selection every value left of hi is ≤ a[hi]: the lower middle value is their maximum
-        float lower = a[0];
-        for (int i = 1; i < hi; i++) {
-            lower = Math.max(lower, a[i]);
-        }
-        return 0.5 * ((double) lower + a[hi]);
-    }
-
-    /**
-     * Moves the k-th smallest of {@code a[lo, hi]} to index k, smaller-or-equal values before it and
-     * greater-or-equal after (Hoare's FIND, CACM 4, 321, 1961, with a median-of-three pivot; finite values).
-     */
-    static void select(float[] a, int lo, int hi, int k) {
-        while (hi > lo) {
-            if (hi - lo < 16) {
-                Arrays.sort(a, lo, hi + 1);
-                return;
-            }
-            int mid = (lo + hi) >>> 1;
-            float p = median3(a[lo], a[mid], a[hi]);
-            int i = lo;
-            int j = hi;
-            while (i <= j) {
-                while (a[i] < p) {
-                    i++;
-                }
-                while (a[j] > p) {
-                    j--;
-                }
-                if (i <= j) {
-                    float t = a[i];
-                    a[i] = a[j];
-                    a[j] = t;
-                    i++;
-                    j--;
-                }
-            }
-            // now a[lo..j] ≤ p ≤ a[i..hi], and a[j+1..i-1] == p
-            if (k <= j) {
-                hi = j;
-            } else if (k >= i) {
-                lo = i;
-            } else {
-                return;
-            }
-        }
-    }
-
-    private static float median3(float x, float y, float z) {
-        return Math.max(Math.min(x, y), Math.min(Math.max(x, y), z));
+        return Select.median(a, n);
     }
 }
