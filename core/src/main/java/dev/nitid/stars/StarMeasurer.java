@@ -24,7 +24,9 @@ import java.util.Map;
  *       {@code detectionFwhm} (a matched filter for Gaussian-like stars in white noise; Irwin 1985,
  *       MNRAS 214, 575; Stetson 1987, PASP 99, 191, §III); a pixel is a candidate if the filtered value
  *       exceeds {@code k·σ·Σg₁²} — the filtered noise for white noise of σ, with g₁ the 1-D kernel — and
- *       it is the largest within {@code minSeparation} pixels.</li>
+ *       it is the largest within {@code minSeparation} pixels. A second look with the zero-sum ("lowered")
+ *       Gaussian of the same width (Stetson 1987, §III) adds companions that the unit-sum filter turns into a
+ *       shoulder on a brighter star's wing; they are rejected as blends below like any close pair.</li>
  *   <li>Cheap rejection, in this order: edge, masked core, saturation (level or flat top), blend, sharpness
  *       ({@code 1 − mean(4 neighbours)/peak}, after Stetson 1987's idea of a sharpness statistic).</li>
  *   <li>Fits: elliptical Gaussian and Moffat + constant by Levenberg–Marquardt ({@link StarProfileFit}) on
