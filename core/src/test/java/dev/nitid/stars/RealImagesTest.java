@@ -26,11 +26,13 @@ class RealImagesTest {
     static final Path DSS = Path.of("/usr/lib/python3/dist-packages/astropy/wcs/tests/data/dss.14.29.56-62.41.05.fits.gz");
     /**
      * Share of photutils' 131 sources in the crowded DSS cutout that we must also detect within 1 px (with a
-     * 2-px separation; measured 99 of 131 = 76 %). Lower than the 95 % met on the uncrowded golden field: pairs
-     * closer than about one FWHM merge into one peak of our Gaussian matched filter, which DAOStarFinder's
-     * zero-sum kernel splits, and the frame's saturated plate stars break into several DAO sources.
+     * 2-px separation). Measured 108 of 131 = 82.4 % with the second look through the zero-sum kernel (99 = 76 %
+     * before it); the floor is 105 of 131 (80.2 %): a margin of three sources (project margin, no source) for
+     * changes of floating-point order. Lower than the 95 % met on the uncrowded golden field: of the 23 misses,
+     * 14 have another photutils source within 4 px (pairs that no Gaussian matched filter of FWHM 3 px splits)
+     * and 9 lie 4.2–10.9 px from their nearest photutils neighbour (one in the corner, found 1.04 px off).
      */
-    private static final double DSS_MATCHED = 0.72;
+    private static final double DSS_MATCHED = 0.80;
     /** Positions of isolated unsaturated stars, px (reference README §8 suggested tolerance). */
     private static final double POSITION_PX = 0.3;
     /** Same method as the reference (point-sampled Gaussian + constant, 11×11 box): only solver noise differs. */
