@@ -7,7 +7,8 @@ package dev.nitid.stars;
  * @param detectionFwhm     FWHM in pixels of the Gaussian matched filter used for detection, &gt; 0; a rough
  *                          guess is enough (the optimum is the stars' FWHM)
  * @param thresholdSigma    detection threshold k: the filtered image must exceed k × its own noise, &gt; 0
- * @param minSeparation     local maxima closer than this many pixels are merged into the brighter one, ≥ 1
+ * @param minSeparation     local maxima of the matched filter closer than this many pixels are merged into the
+ *                          brighter one (the zero-sum second look may still add a companion beyond it), ≥ 1
  * @param stampRadius       fitting stamps are (2r+1)² pixels; also the measured PSF's radius, ≥ 3
  * @param saturation        pixel value at or above which a star is saturated (NaN = unknown; a flat top of
  *                          ≥ 3 equal peak pixels at or above half the frame's maximum still marks a star
