@@ -52,7 +52,7 @@ final class HeaderNumbers {
     }
 
     private static FitsException problem(Path input, FitsImage frame, IllegalArgumentException e, String option) {
-        String msg = e.getMessage();
+        String msg = java.util.Objects.toString(e.getMessage(), e.toString());
         int colon = msg.lastIndexOf(": ");
         String what = colon > 0 ? msg.substring(0, colon) : msg;
         return new FitsException(FitsException.Kind.BAD_DATA, input, frame.hdu(), null,

@@ -25,7 +25,8 @@ import java.util.OptionalDouble;
  * @param blurParameters header parameters describing the blur (seeing, jitter)
  * @param plateScale     arcsec per pixel if known (NaN otherwise), reported by {@link #plateScaleArcsec()}
  * @param threads        worker threads of the convolution, ≥ 1 (the base renders with its own settings;
- *                       the result does not depend on it, {@link Convolver})
+ *                       the result does not depend on it, {@link Convolver}; as a record component it takes
+ *                       part in {@code equals})
  */
 public record ConvolvedPsf(PsfModel base, List<AnalyticPsf> kernels, List<PsfParameter> blurParameters,
                            double plateScale, int threads) implements PsfModel {

@@ -39,7 +39,9 @@ import java.util.OptionalDouble;
  * @param zernike       aberrations, waves RMS (Noll 4–11)
  * @param pupilSamples  fewest samples across the pupil diameter, 32 … 4096
  * @param threads       worker threads for rendering, ≥ 1 (how the work is run, not what the PSF is: renders are
- *                      identical bit for bit whatever the count; {@link #parameters()} leaves it out)
+ *                      identical bit for bit whatever the count; {@link #parameters()} leaves it out, but
+ *                      as a record component it takes part in {@code equals}: compare {@code withThreads(1)}
+ *                      copies to compare optics)
  */
 public record PupilPsf(double apertureMm, double obstruction, int vanes, double vaneWidthMm, double vaneAngleDeg,
                        double focalLengthMm, double pixelSizeUm, Spectrum spectrum, Zernike zernike,

@@ -11,8 +11,9 @@ public enum Method {
     /**
      * Richardson–Lucy with vector extrapolation (Biggs &amp; Andrews 1997, Applied Optics 36, 1766, eqs. 8–10,
      * equation numbers from memory): predicts {@code y = x_k + α (x_k − x_{k−1})} with
-     * {@code α = Σ g_{k−1} g_{k−2} / Σ g_{k−2}²} clipped to [0, 1), then applies one RL step to {@code y}.
-     * Reaches the same likelihood in fewer iterations.
+     * {@code α = Σ g_{k−1} g_{k−2} / Σ g_{k−2}²} clipped to [0, 1), then applies one RL step to {@code y};
+     * when the correlation turns negative the extrapolation restarts (two plain steps). Reaches the same
+     * likelihood in fewer iterations.
      */
     ACCELERATED_RL,
     /**

@@ -19,6 +19,7 @@ import org.openjdk.jmh.annotations.Param;
 import org.openjdk.jmh.annotations.Scope;
 import org.openjdk.jmh.annotations.Setup;
 import org.openjdk.jmh.annotations.State;
+import org.openjdk.jmh.annotations.TearDown;
 import org.openjdk.jmh.annotations.Warmup;
 
 /**
@@ -85,6 +86,12 @@ public class RlIterationBenchmark {
         plan = new RlPlan(size, size, psf, EdgeHandling.REFLECT, m, threads);
         out = new float[size * size];
         params = new RlPlan.Params(m, 0, 1, 0, 1, 3);
+    }
+
+    /** Stops the plan's worker threads, so that trials do not accumulate pools. */
+    @TearDown
+    public void tearDown() {
+        plan.close();
     }
 
     /** @return the restored frame (kept alive for JMH) */
