@@ -1,6 +1,6 @@
 package dev.nitid.image;
 
-import java.util.Arrays;
+import dev.nitid.image.internal.Select;
 
 /**
  * Summary statistics of one plane, accumulated in double over the finite pixels only.
@@ -65,13 +65,10 @@ public record ImageStats(long count, long nonFinite, double sum, double min, dou
      *
      * @param values the values (input, reordered)
      * @param n      how many leading values to use, ≥ 1
-     * @return the median; the mean of the two middle values for even n
+     * @return the median; the mean of the two middle values for even n (the same value as after sorting,
+     *         found by selection in O(n): sorting a 24-megapixel frame twice took seconds of the preview)
      */
     static double medianInPlace(float[] values, int n) {
-        Arrays.sort(values, 0, n);
-        if ((n & 1) == 1) {
-            return values[n / 2];
-        }
-        return 0.5 * ((double) values[n / 2 - 1] + values[n / 2]);
+        return Select.median(values, n);
     }
 }

@@ -2,7 +2,7 @@ package dev.nitid.stars;
 
 import dev.nitid.stars.internal.HistogramMedian;
 import dev.nitid.stars.internal.Parallel;
-import dev.nitid.stars.internal.Select;
+import dev.nitid.image.internal.Select;
 
 /**
  * A smooth background level and noise map from a mesh of sigma-clipped cells.

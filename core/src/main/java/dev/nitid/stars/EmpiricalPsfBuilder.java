@@ -1,7 +1,7 @@
 package dev.nitid.stars;
 
 import dev.nitid.image.Image;
-import dev.nitid.stars.internal.Select;
+import dev.nitid.image.internal.Select;
 import java.util.ArrayList;
 import java.util.List;
 

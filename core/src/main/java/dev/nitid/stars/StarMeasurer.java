@@ -6,7 +6,7 @@ import dev.nitid.image.Image;
 import dev.nitid.stars.fit.FitSettings;
 import dev.nitid.stars.internal.EllipticalProfileModel;
 import dev.nitid.stars.internal.Parallel;
-import dev.nitid.stars.internal.Select;
+import dev.nitid.image.internal.Select;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.Collections;

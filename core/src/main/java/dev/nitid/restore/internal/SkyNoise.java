@@ -1,6 +1,6 @@
 package dev.nitid.restore.internal;
 
-import dev.nitid.stars.internal.Select;
+import dev.nitid.image.internal.Select;
 
 /**
  * Robust sky level and sky noise of a frame, insensitive to smooth extended light and to stars.
@@ -94,7 +94,7 @@ public final class SkyNoise {
      * The sample median of {@code a[0, n)}, the same value as after {@code Arrays.sort} (middle value, or
      * the mean of the two middle values), found by selection in O(n) instead of sorting: the sort took
      * most of the restoration's set-up on a 24-megapixel frame. Reorders {@code a[0, n)}. The selection
-     * is the project's one float quickselect, {@code stars.internal.Select}.
+     * is the project's one float quickselect, {@code image.internal.Select}.
      */
     static double median(float[] a, int n) {
         return Select.median(a, n);

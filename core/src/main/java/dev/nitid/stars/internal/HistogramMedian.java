@@ -1,5 +1,6 @@
 package dev.nitid.stars.internal;
 
+import dev.nitid.image.internal.Select;
 import java.util.Arrays;
 
 /**

@@ -4,6 +4,7 @@ import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 
+import dev.nitid.image.internal.Select;
 import dev.nitid.testdata.SeededCases;
 import java.util.Arrays;
 import java.util.SplittableRandom;

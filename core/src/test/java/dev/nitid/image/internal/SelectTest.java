@@ -1,4 +1,4 @@
-package dev.nitid.stars.internal;
+package dev.nitid.image.internal;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 

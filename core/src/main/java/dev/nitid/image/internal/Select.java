@@ -1,4 +1,4 @@
-package dev.nitid.stars.internal;
+package dev.nitid.image.internal;
 
 /**
  * Order statistics by Hoare's selection (Hoare 1961, CACM 4, 321, "Algorithm 65: Find"), in place and
